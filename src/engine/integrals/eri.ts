@@ -1,0 +1,393 @@
+/**
+ * Electron-repulsion integrals (ab|cd) = ∫∫ φa(1) φb(1) r12⁻¹ φc(2) φd(2) over contracted
+ * shells of any angular momentum, by the Head-Gordon–Pople scheme:
+ *  1. per primitive quartet: Boys function (boys.ts) and the Obara–Saika vertical recurrence
+ *     to [e0|f0] (eri-class.ts has the recurrences and their sources);
+ *  2. contraction over primitives, sharing each primitive quartet between all functions of a
+ *     general contraction (cc-pVXZ s and p shells);
+ *  3. horizontal recurrence on the contracted [e0|f0] to (ab|cd), bra then ket;
+ *  4. Cartesian → shell functions (spherical.ts).
+ * No allocation per quartet or primitive: every buffer is preallocated per engine.
+ *
+ * Block layout returned by compute(P, Q): out[((fa·nb + fb)·nc + fc)·nd + fd] where a, b are
+ * P.a, P.b and c, d are Q.a, Q.b (pairs in their stored orientation), and a shell's function
+ * index is row · ncomp + component.
+ */
+import { boys, boys0 } from "./boys.ts";
+import { cumStart, ncart } from "./cartesian.ts";
+import { type EriClass, eriClass, type HrrStep } from "./eri-class.ts";
+import { generateVrr, type VrrKernel } from "./eri-codegen.ts";
+import { makeShellPair, type ShellPair } from "./shell-pairs.ts";
+import type { PreparedBasis } from "./shells.ts";
+import { componentTransform } from "./spherical.ts";
+
+interface SparseTransform {
+  /** the unit matrix (s functions, and p functions which keep their Cartesian form) */
+  identity: boolean;
+  nout: number;
+  nin: number;
+  start: Int32Array;
+  idx: Int32Array;
+  val: Float64Array;
+}
+
+function sparseTransform(l: number, pure: boolean): SparseTransform {
+  const t = componentTransform(l, pure);
+  const start = [0];
+  const idx: number[] = [];
+  const val: number[] = [];
+  for (let o = 0; o < t.ncomp; o++) {
+    for (let i = 0; i < t.ncart; i++) {
+      const v = t.matrix[o * t.ncart + i];
+      if (v !== 0) {
+        idx.push(i);
+        val.push(v);
+      }
+    }
+    start.push(idx.length);
+  }
+  const identity = t.diagonal && t.matrix.every((v, k) => (k % (t.ncart + 1) === 0 ? v === 1 : v === 0));
+  return { identity, nout: t.ncomp, nin: t.ncart, start: Int32Array.from(start), idx: Int32Array.from(idx), val: Float64Array.from(val) };
+}
+
+export class EriEngine {
+  readonly basis: PreparedBasis;
+  /** all pairs i ≥ j, index i(i+1)/2 + j */
+  readonly pairs: ShellPair[];
+  private w: Float64Array;
+  private fm: Float64Array;
+  private pb: Float64Array;
+  private tmp: Float64Array;
+  private acc: Float64Array;
+  private h1: Float64Array;
+  private h2: Float64Array;
+  private out: Float64Array;
+  private transforms: SparseTransform[][];
+  private maxRows: number;
+  private sized = new Set<EriClass>();
+  private kernels = new Map<EriClass, VrrKernel | null>();
+  private par = new Float64Array(17);
+  private strides = new Int32Array(4);
+
+  /** Grow the scratch buffers to what a class needs (once per class). */
+  private ensure(cls: EriClass): void {
+    if (this.sized.has(cls)) return;
+    this.sized.add(cls);
+    const blk = cls.nE * cls.nF;
+    const r2 = this.maxRows * this.maxRows;
+    if (this.w.length < cls.wsize) this.w = new Float64Array(cls.wsize);
+    if (this.pb.length < blk) this.pb = new Float64Array(blk);
+    if (this.tmp.length < r2 * blk) this.tmp = new Float64Array(r2 * blk);
+    if (this.acc.length < r2 * r2 * blk) this.acc = new Float64Array(r2 * r2 * blk);
+    if (this.h1.length < cls.scratch) {
+      this.h1 = new Float64Array(cls.scratch);
+      this.h2 = new Float64Array(cls.scratch);
+    }
+  }
+
+  constructor(basis: PreparedBasis) {
+    this.basis = basis;
+    const sh = basis.shells;
+    const pairs: ShellPair[] = [];
+    for (let i = 0; i < sh.length; i++) for (let j = 0; j <= i; j++) pairs.push(makeShellPair(sh[i], i, sh[j], j));
+    this.pairs = pairs;
+    const lmax = basis.maxL;
+    let maxRows = 1;
+    let maxFunc = 1;
+    for (const s of sh) {
+      maxRows = Math.max(maxRows, s.ncontr);
+      maxFunc = Math.max(maxFunc, s.nfunc);
+    }
+    this.maxRows = maxRows;
+    this.w = new Float64Array(0);
+    this.fm = new Float64Array(4 * lmax + 2);
+    this.pb = new Float64Array(0);
+    this.tmp = new Float64Array(0);
+    this.acc = new Float64Array(0);
+    this.h1 = new Float64Array(0);
+    this.h2 = new Float64Array(0);
+    this.out = new Float64Array(maxFunc ** 4);
+    this.transforms = [];
+    for (let l = 0; l <= lmax; l++) this.transforms.push([sparseTransform(l, false), sparseTransform(l, true)]);
+  }
+
+  pairIndex(i: number, j: number): number {
+    return i >= j ? (i * (i + 1)) / 2 + j : (j * (j + 1)) / 2 + i;
+  }
+
+  /**
+   * (P|Q) for two shell pairs; returns a view of an internal buffer (valid until the next call)
+   * laid out as described in the module comment.
+   */
+  compute(P: ShellPair, Q: ShellPair): Float64Array {
+    const swap = Q.a.l + Q.b.l > P.a.l + P.b.l;
+    const bra = swap ? Q : P;
+    const ket = swap ? P : Q;
+    const cls = eriClass(bra.a.l, bra.b.l, ket.a.l, ket.b.l);
+    this.ensure(cls);
+    const blk = cls.nE * cls.nF;
+    const nrab = bra.nrows;
+    const nrcd = ket.nrows;
+    const acc = this.acc;
+    acc.fill(0, 0, nrab * nrcd * blk);
+    this.contractPrimitives(cls, bra, ket, blk);
+    // strides of the computed (a b | c d) inside the caller's (P|Q) block
+    const nfPa = P.a.nfunc, nfPb = P.b.nfunc, nfQa = Q.a.nfunc, nfQb = Q.b.nfunc;
+    const sQb = 1, sQa = nfQb, sPb = nfQa * nfQb, sPa = nfPb * sPb;
+    const strides = this.strides;
+    if (swap) {
+      strides[0] = sQa; strides[1] = sQb; strides[2] = sPa; strides[3] = sPb;
+    } else {
+      strides[0] = sPa; strides[1] = sPb; strides[2] = sQa; strides[3] = sQb;
+    }
+    const total = nfPa * nfPb * nfQa * nfQb;
+    const out = this.out.length >= total ? this.out : (this.out = new Float64Array(total));
+    for (let rab = 0; rab < nrab; rab++) {
+      for (let rcd = 0; rcd < nrcd; rcd++) {
+        this.finishRows(cls, bra, ket, acc, (rab * nrcd + rcd) * blk, rab, rcd, strides, out);
+      }
+    }
+    return out.subarray(0, total);
+  }
+
+  /** Steps 1–2: accumulate contracted [e0|f0] blocks acc[rab][rcd][ei][fi]. */
+  private contractPrimitives(cls: EriClass, bra: ShellPair, ket: ShellPair, blk: number): void {
+    if (cls.L === 0) return this.contractSsss(bra, ket);
+    const w = this.w;
+    const fm = this.fm;
+    const pb = this.pb;
+    const acc = this.acc;
+    const tmp = this.tmp;
+    const L = cls.L;
+    const nrcd = ket.nrows;
+    const bothSegmented = bra.segmented && ket.segmented;
+    const gather = cls.gather;
+    let kernel = this.kernels.get(cls);
+    if (kernel === undefined) {
+      kernel = generateVrr(cls);
+      this.kernels.set(cls, kernel);
+    }
+    const qcx0 = ket.a.x, qcy0 = ket.a.y, qcz0 = ket.a.z;
+    const kp = ket.p, kpc = ket.pc, kk = ket.k, nk = ket.nprim;
+    const kStart = ket.comboStart, kRow = ket.comboRow, kCoef = ket.comboCoef;
+    const ketSeg = ket.segmented;
+    const target = bothSegmented ? acc : tmp;
+    const par = this.par;
+    for (let i = 0; i < bra.nprim; i++) {
+      const p = bra.p[i];
+      const kab = bra.k[i];
+      const Px = bra.pc[3 * i], Py = bra.pc[3 * i + 1], Pz = bra.pc[3 * i + 2];
+      const pax = bra.pa[3 * i], pay = bra.pa[3 * i + 1], paz = bra.pa[3 * i + 2];
+      const h2p = 0.5 / p;
+      if (!bothSegmented) tmp.fill(0, 0, nrcd * blk);
+      for (let j = 0; j < nk; j++) {
+        const q = kp[j];
+        const Qx = kpc[3 * j], Qy = kpc[3 * j + 1], Qz = kpc[3 * j + 2];
+        const pq = p + q;
+        const ipq = 1 / pq;
+        const rho = p * q * ipq;
+        const dx = Px - Qx, dy = Py - Qy, dz = Pz - Qz;
+        const T = rho * (dx * dx + dy * dy + dz * dz);
+        const pref = kab * kk[j] * Math.sqrt(ipq);
+        boys(L, T, fm);
+        const Wx = (p * Px + q * Qx) * ipq, Wy = (p * Py + q * Qy) * ipq, Wz = (p * Pz + q * Qz) * ipq;
+        if (kernel !== null) {
+          for (let m = 0; m <= L; m++) fm[m] *= pref;
+          par[0] = pax; par[1] = pay; par[2] = paz;
+          par[3] = Wx - Px; par[4] = Wy - Py; par[5] = Wz - Pz;
+          par[6] = Qx - qcx0; par[7] = Qy - qcy0; par[8] = Qz - qcz0;
+          par[9] = Wx - Qx; par[10] = Wy - Qy; par[11] = Wz - Qz;
+          par[12] = h2p; par[13] = rho / p; par[14] = 0.5 / q; par[15] = rho / q; par[16] = 0.5 * ipq;
+          kernel(fm, par, pb);
+        } else {
+          for (let m = 0; m <= L; m++) w[m] = pref * fm[m];
+          vrr(cls, w, p, q, rho, pax, pay, paz, Wx - Px, Wy - Py, Wz - Pz,
+            Qx - qcx0, Qy - qcy0, Qz - qcz0, Wx - Qx, Wy - Qy, Wz - Qz);
+          for (let k = 0; k < blk; k++) pb[k] = w[gather[k]];
+        }
+        if (ketSeg) {
+          for (let k = 0; k < blk; k++) target[k] += pb[k];
+        } else {
+          for (let c = kStart[j]; c < kStart[j + 1]; c++) {
+            const coef = kCoef[c];
+            const o = kRow[c] * blk;
+            for (let k = 0; k < blk; k++) tmp[o + k] += coef * pb[k];
+          }
+        }
+      }
+      if (!bothSegmented) this.braCombos(bra, i, nrcd * blk);
+    }
+  }
+
+  /** acc[rab] += c · tmp for the bra combos of primitive pair i. */
+  private braCombos(bra: ShellPair, i: number, n: number): void {
+    const acc = this.acc;
+    const tmp = this.tmp;
+    if (bra.segmented) {
+      for (let k = 0; k < n; k++) acc[k] += tmp[k];
+      return;
+    }
+    for (let c = bra.comboStart[i]; c < bra.comboStart[i + 1]; c++) {
+      const coef = bra.comboCoef[c];
+      const o = bra.comboRow[c] * n;
+      for (let k = 0; k < n; k++) acc[o + k] += coef * tmp[k];
+    }
+  }
+
+  /** (ss|ss): no recurrences, F_0 only. */
+  private contractSsss(bra: ShellPair, ket: ShellPair): void {
+    const acc = this.acc;
+    const tmp = this.tmp;
+    const nrcd = ket.nrows;
+    const kp = ket.p, kpc = ket.pc, kk = ket.k, nk = ket.nprim;
+    const kStart = ket.comboStart, kRow = ket.comboRow, kCoef = ket.comboCoef;
+    const ketSeg = ket.segmented;
+    for (let i = 0; i < bra.nprim; i++) {
+      const p = bra.p[i];
+      const kab = bra.k[i];
+      const Px = bra.pc[3 * i], Py = bra.pc[3 * i + 1], Pz = bra.pc[3 * i + 2];
+      let sum = 0;
+      if (!ketSeg) tmp.fill(0, 0, nrcd);
+      for (let j = 0; j < nk; j++) {
+        const q = kp[j];
+        const dx = Px - kpc[3 * j], dy = Py - kpc[3 * j + 1], dz = Pz - kpc[3 * j + 2];
+        const ipq = 1 / (p + q);
+        const v = kk[j] * Math.sqrt(ipq) * boys0(p * q * ipq * (dx * dx + dy * dy + dz * dz));
+        if (ketSeg) sum += v;
+        else for (let c = kStart[j]; c < kStart[j + 1]; c++) tmp[kRow[c]] += kCoef[c] * v;
+      }
+      if (ketSeg) tmp[0] = sum;
+      for (let r = 0; r < nrcd; r++) tmp[r] *= kab;
+      this.braCombos(bra, i, nrcd);
+    }
+  }
+
+  /** Steps 3–4 for one row combination: HRR, transforms, scatter into out. */
+  private finishRows(
+    cls: EriClass, bra: ShellPair, ket: ShellPair, acc: Float64Array, off: number,
+    rab: number, rcd: number, strides: Int32Array, out: Float64Array,
+  ): void {
+    const na = ncart(cls.la), nb = ncart(cls.lb), nc = ncart(cls.lc), nd = ncart(cls.ld);
+    const nF = cls.nF;
+    let h1 = this.h1;
+    let h2 = this.h2;
+    // bra HRR: [e][f] → [a][b][f]
+    let cur = acc;
+    let curOff = off;
+    for (const st of cls.hrrBra) {
+      hrrStep(st, cur, curOff, h1, nF, bra.abx, bra.aby, bra.abz);
+      cur = h1;
+      curOff = 0;
+      const t = h1; h1 = h2; h2 = t;
+    }
+    // transpose to [f][ab]
+    const nab = na * nb;
+    for (let ab = 0; ab < nab; ab++) for (let f = 0; f < nF; f++) h1[f * nab + ab] = cur[curOff + ab * nF + f];
+    cur = h1;
+    { const t = h1; h1 = h2; h2 = t; }
+    for (const st of cls.hrrKet) {
+      hrrStep(st, cur, 0, h1, nab, ket.abx, ket.aby, ket.abz);
+      cur = h1;
+      const t = h1; h1 = h2; h2 = t;
+    }
+    // cur: [c][d][a][b] Cartesian. Transform last index and rotate, four times → [c'][d'][a'][b']
+    const T = this.transforms;
+    const tb = T[cls.lb][bra.b.pure ? 1 : 0], ta = T[cls.la][bra.a.pure ? 1 : 0];
+    const td = T[cls.ld][ket.b.pure ? 1 : 0], tc = T[cls.lc][ket.a.pure ? 1 : 0];
+    let n = nc * nd * na * nb;
+    for (let step = 0; step < 4; step++) {
+      const tr = step === 0 ? tb : step === 1 ? ta : step === 2 ? td : tc;
+      if (tr.identity) {
+        // a Cartesian s or p index: only the rotation of the layout is needed
+        if (tr.nin === 1) continue;
+      }
+      const x = n / tr.nin;
+      applyLast(tr, cur, h1, x);
+      n = x * tr.nout;
+      cur = h1;
+      const t = h1; h1 = h2; h2 = t;
+    }
+    // scatter: element (c, d, a, b) → out
+    const ra = Math.floor(rab / bra.b.ncontr), rb = rab % bra.b.ncontr;
+    const rc = Math.floor(rcd / ket.b.ncontr), rd = rcd % ket.b.ncontr;
+    const oa = ra * ta.nout, ob = rb * tb.nout, oc = rc * tc.nout, od = rd * td.nout;
+    const sa = strides[0], sb = strides[1], sc = strides[2], sd = strides[3];
+    let k = 0;
+    for (let c = 0; c < tc.nout; c++)
+      for (let d = 0; d < td.nout; d++) {
+        const base = (oc + c) * sc + (od + d) * sd;
+        for (let a = 0; a < ta.nout; a++) {
+          const base2 = base + (oa + a) * sa + ob * sb;
+          for (let b = 0; b < tb.nout; b++) out[base2 + b * sb] = cur[k++];
+        }
+      }
+  }
+}
+
+/** The two vertical recurrences for one primitive quartet, in place on w. */
+function vrr(
+  cls: EriClass, w: Float64Array, p: number, q: number, rho: number,
+  pax: number, pay: number, paz: number, wpx: number, wpy: number, wpz: number,
+  qcx: number, qcy: number, qcz: number, wqx: number, wqy: number, wqz: number,
+): void {
+  const h2p = 0.5 / p;
+  const rp = rho / p;
+  const bDst = cls.bDst, bS1 = cls.bS1, bS2 = cls.bS2, bN = cls.bN, bAx = cls.bAx, bM = cls.bM;
+  for (let o = 0; o < bDst.length; o++) {
+    const ax = bAx[o];
+    const c1 = ax === 0 ? pax : ax === 1 ? pay : paz;
+    const c2 = ax === 0 ? wpx : ax === 1 ? wpy : wpz;
+    const c3 = bN[o] * h2p;
+    const c4 = c3 * rp;
+    const d = bDst[o], s = bS1[o], t = bS2[o], mc = bM[o];
+    for (let m = 0; m < mc; m++) w[d + m] = c1 * w[s + m] + c2 * w[s + m + 1] + c3 * w[t + m] - c4 * w[t + m + 1];
+  }
+  const kDst = cls.kDst;
+  if (kDst.length === 0) return;
+  const h2q = 0.5 / q;
+  const rq = rho / q;
+  const h2pq = 0.5 / (p + q);
+  const kS1 = cls.kS1, kS2 = cls.kS2, kE1 = cls.kE1, kNf = cls.kNf, kNe = cls.kNe, kAx = cls.kAx, kM = cls.kM;
+  for (let o = 0; o < kDst.length; o++) {
+    const ax = kAx[o];
+    const c1 = ax === 0 ? qcx : ax === 1 ? qcy : qcz;
+    const c2 = ax === 0 ? wqx : ax === 1 ? wqy : wqz;
+    const c3 = kNf[o] * h2q;
+    const c4 = c3 * rq;
+    const c5 = kNe[o] * h2pq;
+    const d = kDst[o], s = kS1[o], t = kS2[o], u = kE1[o] + 1, mc = kM[o];
+    for (let m = 0; m < mc; m++)
+      w[d + m] = c1 * w[s + m] + c2 * w[s + m + 1] + c3 * w[t + m] - c4 * w[t + m + 1] + c5 * w[u + m];
+  }
+}
+
+function hrrStep(st: HrrStep, src: Float64Array, srcOff: number, dst: Float64Array, inner: number,
+  abx: number, aby: number, abz: number): void {
+  const D = st.dst, U = st.srcUp, S = st.src, A = st.axis;
+  for (let o = 0; o < D.length; o++) {
+    const ax = A[o];
+    const c = ax === 0 ? abx : ax === 1 ? aby : abz;
+    const d = D[o], u = U[o] + srcOff, s = S[o] + srcOff;
+    for (let i = 0; i < inner; i++) dst[d + i] = src[u + i] + c * src[s + i];
+  }
+}
+
+/** out[o * x + r] = Σ_i T[o][i] in[r * nin + i]  (transform last index, move it first). */
+function applyLast(tr: SparseTransform, src: Float64Array, dst: Float64Array, x: number): void {
+  const nin = tr.nin;
+  for (let o = 0; o < tr.nout; o++) {
+    const k0 = tr.start[o], k1 = tr.start[o + 1];
+    const ob = o * x;
+    if (k1 - k0 === 1) {
+      const i0 = tr.idx[k0], v0 = tr.val[k0];
+      for (let r = 0; r < x; r++) dst[ob + r] = v0 * src[r * nin + i0];
+    } else {
+      for (let r = 0; r < x; r++) {
+        let s = 0;
+        const rb = r * nin;
+        for (let k = k0; k < k1; k++) s += tr.val[k] * src[rb + tr.idx[k]];
+        dst[ob + r] = s;
+      }
+    }
+  }
+}

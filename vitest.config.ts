@@ -1,0 +1,11 @@
+import { defineConfig } from "vitest/config";
+
+// `npm test`: the unit and reference-value suite, kept to a few minutes on 2 cores.
+export default defineConfig({
+  test: {
+    include: ["test/**/*.test.ts"],
+    exclude: ["test/heavy/**", "node_modules/**"],
+    testTimeout: 120_000,
+    hookTimeout: 120_000,
+  },
+});
