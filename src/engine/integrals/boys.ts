@@ -105,3 +105,14 @@ export function boys0(t: number): number {
   }
   return HALF_SQRT_PI / Math.sqrt(t);
 }
+
+/** The tabulation, for code that inlines the evaluation above (eri-codegen.ts). */
+export const BOYS_TABLE = {
+  grid,
+  orders: N_ORDERS,
+  step: GRID_STEP,
+  tTable: T_TABLE,
+  terms: TAYLOR_TERMS,
+  invFact: INV_FACT,
+  halfSqrtPi: HALF_SQRT_PI,
+} as const;

@@ -63,6 +63,8 @@ export interface EriClass {
   /** HRR programs; bra acts on e with inner nF, ket on f with inner ncart(la)·ncart(lb) */
   hrrBra: HrrStep[];
   hrrKet: HrrStep[];
+  /** no HRR on either side and s/p shells only: the contracted block is already (ab|cd) */
+  direct: boolean;
 }
 
 /** Steps turning [e = la … la+lb] × inner into [a (level la)][b (level lb)] × inner. */
@@ -102,11 +104,16 @@ export function hrrProgram(la: number, lb: number, inner: number): HrrStep[] {
   return steps;
 }
 
-const cache = new Map<number, EriClass>();
+/** Classes by key ((la·16 + lb)·16 + lc)·16 + ld; a plain array, looked up once per quartet. */
+const cache: (EriClass | undefined)[] = [];
+
+export function eriClassKey(la: number, lb: number, lc: number, ld: number): number {
+  return ((la * 16 + lb) * 16 + lc) * 16 + ld;
+}
 
 export function eriClass(la: number, lb: number, lc: number, ld: number): EriClass {
-  const key = ((la * 16 + lb) * 16 + lc) * 16 + ld;
-  const hit = cache.get(key);
+  const key = eriClassKey(la, lb, lc, ld);
+  const hit = cache[key];
   if (hit) return hit;
   const Lab = la + lb;
   const Lcd = lc + ld;
@@ -182,8 +189,9 @@ export function eriClass(la: number, lb: number, lc: number, ld: number): EriCla
     gather, nE, nF,
     hrrBra,
     hrrKet,
+    direct: lb === 0 && ld === 0 && la <= 1 && lc <= 1,
   };
-  cache.set(key, cls);
+  cache[key] = cls;
   return cls;
 }
 

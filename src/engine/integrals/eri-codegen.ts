@@ -9,20 +9,11 @@
  * the JIT to optimize). Where code generation is not allowed (a browser page with a strict
  * content-security policy), every class falls back to the tables.
  */
+import { BOYS_TABLE } from "./boys.ts";
 import type { EriClass } from "./eri-class.ts";
 
-/**
- * (fm, par, pb): fm holds pref·F_0 … pref·F_L; par holds, in this order,
- * PA(xyz), WP(xyz), QC(xyz), WQ(xyz), 1/(2p), ρ/p, 1/(2q), ρ/q, 1/(2(p+q)) — a typed array, so
- * no number is boxed on the call; the function writes the nE × nF primitive block into pb.
- */
-export type VrrKernel = (fm: Float64Array, par: Float64Array, pb: Float64Array) => void;
-
-export const PARAM_NAMES = ["pax", "pay", "paz", "wpx", "wpy", "wpz", "qcx", "qcy", "qcz", "wqx", "wqy", "wqz",
-  "h2p", "rp", "h2q", "rq", "h2pq"];
-
 /** Classes whose unrolled recurrence has at most this many statements are generated. */
-export const MAX_UNROLLED_STATEMENTS = 1400;
+export const MAX_UNROLLED_STATEMENTS = 500;
 
 let codegenAllowed: boolean | undefined;
 
@@ -46,13 +37,9 @@ function statementCount(cls: EriClass): number {
 
 const AX = ["x", "y", "z"];
 
-/** The unrolled kernel for a class, or null when it should use the tables. */
-export function generateVrr(cls: EriClass): VrrKernel | null {
-  if (!canGenerate() || statementCount(cls) > MAX_UNROLLED_STATEMENTS) return null;
-  const name = (idx: number) => `v${idx}`; // idx = W index ((f·NE + e)·M + m)
+/** Statements of both vertical recurrences; v<index> is the W entry of that index (eri-class.ts). */
+function recurrenceLines(cls: EriClass, name: (idx: number) => string): string[] {
   const lines: string[] = [];
-  PARAM_NAMES.forEach((n, i) => lines.push(`const ${n} = par[${i}];`));
-  for (let m = 0; m <= cls.L; m++) lines.push(`const ${name(m)} = fm[${m}];`);
   // bra: w[d+m] = c1 w[s+m] + c2 w[s+m+1] + n h2p (w[t+m] − rp w[t+m+1])
   for (let o = 0; o < cls.bDst.length; o++) {
     const ax = AX[cls.bAx[o]];
@@ -76,6 +63,75 @@ export function generateVrr(cls: EriClass): VrrKernel | null {
       lines.push(`const ${name(d)} = ${e};`);
     }
   }
-  for (let k = 0; k < cls.gather.length; k++) lines.push(`pb[${k}] = ${name(cls.gather[k])};`);
-  return new Function("fm", "par", "pb", lines.join("\n")) as VrrKernel;
+  return lines;
+}
+
+/**
+ * The whole inner loop over the ket's primitive pairs for one bra primitive pair, unrolled
+ * for one class: Boys function (the evaluation of boys.ts, inlined for this L), vertical
+ * recurrences, and accumulation. One call per bra primitive pair instead of several calls
+ * per primitive quartet, and every call site inside is monomorphic.
+ *
+ * bp = [p, K_ab, Px, Py, Pz, PAx, PAy, PAz, Cx, Cy, Cz] (C: the ket's first centre).
+ * Segmented ket (`segmented`): out[k] += block. Otherwise, for each combo c of ket primitive
+ * pair j: out[row_c · blk + k] += coef_c · block.
+ */
+export type KetLoop = (
+  bp: Float64Array, nk: number, kp: Float64Array, kpc: Float64Array, kk: Float64Array,
+  kStart: Int32Array, kRow: Int32Array, kCoef: Float64Array, out: Float64Array,
+) => void;
+
+export function generateKetLoop(cls: EriClass, segmented: boolean): KetLoop | null {
+  if (!canGenerate() || statementCount(cls) > MAX_UNROLLED_STATEMENTS) return null;
+  const L = cls.L;
+  const B = BOYS_TABLE;
+  const name = (idx: number) => `v${idx}`;
+  const src: string[] = [];
+  src.push("const p = bp[0], kab = bp[1], Px = bp[2], Py = bp[3], Pz = bp[4];");
+  src.push("const pax = bp[5], pay = bp[6], paz = bp[7], Cx = bp[8], Cy = bp[9], Cz = bp[10];");
+  src.push("const h2p = 0.5 / p;");
+  src.push("for (let j = 0; j < nk; j++) {");
+  src.push("const q = kp[j], Qx = kpc[3 * j], Qy = kpc[3 * j + 1], Qz = kpc[3 * j + 2];");
+  src.push("const ipq = 1 / (p + q), rho = p * q * ipq;");
+  src.push("const dx = Px - Qx, dy = Py - Qy, dz = Pz - Qz;");
+  src.push("const T = rho * (dx * dx + dy * dy + dz * dz);");
+  src.push("const pref = kab * kk[j] * Math.sqrt(ipq);");
+  // Boys F_0..F_L, as boys.ts evaluates it
+  for (let m = 0; m <= L; m++) src.push(`let f${m};`);
+  src.push(`if (T < ${B.tTable}) {`);
+  src.push(`const g = Math.round(T * ${1 / B.step}), d = g * ${B.step} - T, b = g * ${B.orders} + ${L};`);
+  let horner = `grid[b + ${B.terms - 1}] * ${B.invFact[B.terms - 1]}`;
+  for (let k = B.terms - 2; k >= 0; k--) horner = `(${horner}) * d + grid[b + ${k}] * ${B.invFact[k]}`;
+  src.push(`f${L} = ${horner};`);
+  if (L > 0) {
+    src.push("const e = Math.exp(-T), t2 = 2 * T;");
+    for (let m = L - 1; m >= 0; m--) src.push(`f${m} = (t2 * f${m + 1} + e) * ${1 / (2 * m + 1)};`);
+  }
+  src.push("} else {");
+  src.push(`f0 = ${B.halfSqrtPi} / Math.sqrt(T);`);
+  if (L > 0) {
+    src.push("const e = Math.exp(-T), i2t = 0.5 / T;");
+    for (let m = 0; m < L; m++) src.push(`f${m + 1} = (${2 * m + 1} * f${m} - e) * i2t;`);
+  }
+  src.push("}");
+  for (let m = 0; m <= L; m++) src.push(`const ${name(m)} = pref * f${m};`);
+  if (L > 0) {
+    src.push("const Wx = (p * Px + q * Qx) * ipq, Wy = (p * Py + q * Qy) * ipq, Wz = (p * Pz + q * Qz) * ipq;");
+    src.push("const wpx = Wx - Px, wpy = Wy - Py, wpz = Wz - Pz, wqx = Wx - Qx, wqy = Wy - Qy, wqz = Wz - Qz;");
+    src.push("const qcx = Qx - Cx, qcy = Qy - Cy, qcz = Qz - Cz;");
+    src.push("const rp = rho / p, h2q = 0.5 / q, rq = rho / q, h2pq = 0.5 * ipq;");
+  }
+  src.push(...recurrenceLines(cls, name));
+  const blk = cls.gather.length;
+  if (segmented) {
+    for (let k = 0; k < blk; k++) src.push(`out[${k}] += ${name(cls.gather[k])};`);
+  } else {
+    src.push("for (let c = kStart[j]; c < kStart[j + 1]; c++) {");
+    src.push(`const cf = kCoef[c], o = kRow[c] * ${blk};`);
+    for (let k = 0; k < blk; k++) src.push(`out[o + ${k}] += cf * ${name(cls.gather[k])};`);
+    src.push("}");
+  }
+  src.push("}");
+  const f = new Function("grid", `return function ketLoop(bp, nk, kp, kpc, kk, kStart, kRow, kCoef, out) {\n${src.join("\n")}\n};`);
+  return f(B.grid) as KetLoop;
 }

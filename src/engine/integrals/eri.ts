@@ -13,10 +13,10 @@
  * P.a, P.b and c, d are Q.a, Q.b (pairs in their stored orientation), and a shell's function
  * index is row · ncomp + component.
  */
-import { boys, boys0 } from "./boys.ts";
+import { boys } from "./boys.ts";
 import { cumStart, ncart } from "./cartesian.ts";
 import { type EriClass, eriClass, type HrrStep } from "./eri-class.ts";
-import { generateVrr, type VrrKernel } from "./eri-codegen.ts";
+import { generateKetLoop, type KetLoop } from "./eri-codegen.ts";
 import { makeShellPair, type ShellPair } from "./shell-pairs.ts";
 import type { PreparedBasis } from "./shells.ts";
 import { componentTransform } from "./spherical.ts";
@@ -65,8 +65,20 @@ export class EriEngine {
   private transforms: SparseTransform[][];
   private maxRows: number;
   private sized = new Set<EriClass>();
-  private kernels = new Map<EriClass, VrrKernel | null>();
+  private loops = [new Map<EriClass, KetLoop | null>(), new Map<EriClass, KetLoop | null>()];
+  private bp = new Float64Array(11);
   private par = new Float64Array(17);
+
+  /** The unrolled ket loop of a class (segmented or general ket), made on first use. */
+  private ketLoop(cls: EriClass, segmented: boolean): KetLoop | null {
+    const map = this.loops[segmented ? 1 : 0];
+    let k = map.get(cls);
+    if (k === undefined) {
+      k = generateKetLoop(cls, segmented);
+      map.set(cls, k);
+    }
+    return k;
+  }
   private strides = new Int32Array(4);
 
   /** Grow the scratch buffers to what a class needs (once per class). */
@@ -116,8 +128,9 @@ export class EriEngine {
   }
 
   /**
-   * (P|Q) for two shell pairs; returns a view of an internal buffer (valid until the next call)
-   * laid out as described in the module comment.
+   * (P|Q) for two shell pairs; returns an internal buffer (valid until the next call) whose
+   * first nfunc(P.a)·nfunc(P.b)·nfunc(Q.a)·nfunc(Q.b) entries hold the block laid out as
+   * described in the module comment.
    */
   compute(P: ShellPair, Q: ShellPair): Float64Array {
     const swap = Q.a.l + Q.b.l > P.a.l + P.b.l;
@@ -147,12 +160,31 @@ export class EriEngine {
         this.finishRows(cls, bra, ket, acc, (rab * nrcd + rcd) * blk, rab, rcd, strides, out);
       }
     }
-    return out.subarray(0, total);
+    return out;
   }
 
   /** Steps 1–2: accumulate contracted [e0|f0] blocks acc[rab][rcd][ei][fi]. */
   private contractPrimitives(cls: EriClass, bra: ShellPair, ket: ShellPair, blk: number): void {
-    if (cls.L === 0) return this.contractSsss(bra, ket);
+    const ketSeg = ket.segmented;
+    const loop = this.ketLoop(cls, ketSeg);
+    if (loop === null) return this.contractTables(cls, bra, ket, blk);
+    const bothSegmented = bra.segmented && ketSeg;
+    const target = bothSegmented ? this.acc : this.tmp;
+    const n = ket.nrows * blk;
+    const bp = this.bp;
+    bp[8] = ket.a.x; bp[9] = ket.a.y; bp[10] = ket.a.z;
+    for (let i = 0; i < bra.nprim; i++) {
+      bp[0] = bra.p[i]; bp[1] = bra.k[i];
+      bp[2] = bra.pc[3 * i]; bp[3] = bra.pc[3 * i + 1]; bp[4] = bra.pc[3 * i + 2];
+      bp[5] = bra.pa[3 * i]; bp[6] = bra.pa[3 * i + 1]; bp[7] = bra.pa[3 * i + 2];
+      if (!bothSegmented) target.fill(0, 0, n);
+      loop(bp, ket.nprim, ket.p, ket.pc, ket.k, ket.comboStart, ket.comboRow, ket.comboCoef, target);
+      if (!bothSegmented) this.braCombos(bra, i, n);
+    }
+  }
+
+  /** The same with the table-driven recurrences, for classes too large to unroll. */
+  private contractTables(cls: EriClass, bra: ShellPair, ket: ShellPair, blk: number): void {
     const w = this.w;
     const fm = this.fm;
     const pb = this.pb;
@@ -162,15 +194,9 @@ export class EriEngine {
     const nrcd = ket.nrows;
     const bothSegmented = bra.segmented && ket.segmented;
     const gather = cls.gather;
-    let kernel = this.kernels.get(cls);
-    if (kernel === undefined) {
-      kernel = generateVrr(cls);
-      this.kernels.set(cls, kernel);
-    }
     const qcx0 = ket.a.x, qcy0 = ket.a.y, qcz0 = ket.a.z;
     const kp = ket.p, kpc = ket.pc, kk = ket.k, nk = ket.nprim;
     const kStart = ket.comboStart, kRow = ket.comboRow, kCoef = ket.comboCoef;
-    const ketSeg = ket.segmented;
     const target = bothSegmented ? acc : tmp;
     const par = this.par;
     for (let i = 0; i < bra.nprim; i++) {
@@ -178,7 +204,6 @@ export class EriEngine {
       const kab = bra.k[i];
       const Px = bra.pc[3 * i], Py = bra.pc[3 * i + 1], Pz = bra.pc[3 * i + 2];
       const pax = bra.pa[3 * i], pay = bra.pa[3 * i + 1], paz = bra.pa[3 * i + 2];
-      const h2p = 0.5 / p;
       if (!bothSegmented) tmp.fill(0, 0, nrcd * blk);
       for (let j = 0; j < nk; j++) {
         const q = kp[j];
@@ -187,25 +212,18 @@ export class EriEngine {
         const ipq = 1 / pq;
         const rho = p * q * ipq;
         const dx = Px - Qx, dy = Py - Qy, dz = Pz - Qz;
-        const T = rho * (dx * dx + dy * dy + dz * dz);
         const pref = kab * kk[j] * Math.sqrt(ipq);
-        boys(L, T, fm);
+        boys(L, rho * (dx * dx + dy * dy + dz * dz), fm);
         const Wx = (p * Px + q * Qx) * ipq, Wy = (p * Py + q * Qy) * ipq, Wz = (p * Pz + q * Qz) * ipq;
-        if (kernel !== null) {
-          for (let m = 0; m <= L; m++) fm[m] *= pref;
-          par[0] = pax; par[1] = pay; par[2] = paz;
-          par[3] = Wx - Px; par[4] = Wy - Py; par[5] = Wz - Pz;
-          par[6] = Qx - qcx0; par[7] = Qy - qcy0; par[8] = Qz - qcz0;
-          par[9] = Wx - Qx; par[10] = Wy - Qy; par[11] = Wz - Qz;
-          par[12] = h2p; par[13] = rho / p; par[14] = 0.5 / q; par[15] = rho / q; par[16] = 0.5 * ipq;
-          kernel(fm, par, pb);
-        } else {
-          for (let m = 0; m <= L; m++) w[m] = pref * fm[m];
-          vrr(cls, w, p, q, rho, pax, pay, paz, Wx - Px, Wy - Py, Wz - Pz,
-            Qx - qcx0, Qy - qcy0, Qz - qcz0, Wx - Qx, Wy - Qy, Wz - Qz);
-          for (let k = 0; k < blk; k++) pb[k] = w[gather[k]];
-        }
-        if (ketSeg) {
+        for (let m = 0; m <= L; m++) w[m] = pref * fm[m];
+        par[0] = pax; par[1] = pay; par[2] = paz;
+        par[3] = Wx - Px; par[4] = Wy - Py; par[5] = Wz - Pz;
+        par[6] = Qx - qcx0; par[7] = Qy - qcy0; par[8] = Qz - qcz0;
+        par[9] = Wx - Qx; par[10] = Wy - Qy; par[11] = Wz - Qz;
+        par[12] = 0.5 / p; par[13] = rho / p; par[14] = 0.5 / q; par[15] = rho / q; par[16] = 0.5 * ipq;
+        vrr(cls, w, par);
+        for (let k = 0; k < blk; k++) pb[k] = w[gather[k]];
+        if (ket.segmented) {
           for (let k = 0; k < blk; k++) target[k] += pb[k];
         } else {
           for (let c = kStart[j]; c < kStart[j + 1]; c++) {
@@ -234,32 +252,18 @@ export class EriEngine {
     }
   }
 
-  /** (ss|ss): no recurrences, F_0 only. */
-  private contractSsss(bra: ShellPair, ket: ShellPair): void {
-    const acc = this.acc;
-    const tmp = this.tmp;
-    const nrcd = ket.nrows;
-    const kp = ket.p, kpc = ket.pc, kk = ket.k, nk = ket.nprim;
-    const kStart = ket.comboStart, kRow = ket.comboRow, kCoef = ket.comboCoef;
-    const ketSeg = ket.segmented;
-    for (let i = 0; i < bra.nprim; i++) {
-      const p = bra.p[i];
-      const kab = bra.k[i];
-      const Px = bra.pc[3 * i], Py = bra.pc[3 * i + 1], Pz = bra.pc[3 * i + 2];
-      let sum = 0;
-      if (!ketSeg) tmp.fill(0, 0, nrcd);
-      for (let j = 0; j < nk; j++) {
-        const q = kp[j];
-        const dx = Px - kpc[3 * j], dy = Py - kpc[3 * j + 1], dz = Pz - kpc[3 * j + 2];
-        const ipq = 1 / (p + q);
-        const v = kk[j] * Math.sqrt(ipq) * boys0(p * q * ipq * (dx * dx + dy * dy + dz * dz));
-        if (ketSeg) sum += v;
-        else for (let c = kStart[j]; c < kStart[j + 1]; c++) tmp[kRow[c]] += kCoef[c] * v;
-      }
-      if (ketSeg) tmp[0] = sum;
-      for (let r = 0; r < nrcd; r++) tmp[r] *= kab;
-      this.braCombos(bra, i, nrcd);
-    }
+  /** (a0|c0) with a, c s or p (Cartesian p need no transform): acc[a][c] straight into out. */
+  private scatterDirect(
+    cls: EriClass, bra: ShellPair, ket: ShellPair, acc: Float64Array, off: number,
+    rab: number, rcd: number, strides: Int32Array, out: Float64Array,
+  ): void {
+    const na = ncart(cls.la), nc = ncart(cls.lc);
+    const nrb = bra.b.ncontr, nrd = ket.b.ncontr;
+    const ra = (rab / nrb) | 0, rb = rab - ra * nrb;
+    const rc = (rcd / nrd) | 0, rd = rcd - rc * nrd;
+    const sa = strides[0], sc = strides[2];
+    const base = ra * na * sa + rb * strides[1] + rc * nc * sc + rd * strides[3];
+    for (let a = 0; a < na; a++) for (let c = 0; c < nc; c++) out[base + a * sa + c * sc] = acc[off + a * nc + c];
   }
 
   /** Steps 3–4 for one row combination: HRR, transforms, scatter into out. */
@@ -267,6 +271,7 @@ export class EriEngine {
     cls: EriClass, bra: ShellPair, ket: ShellPair, acc: Float64Array, off: number,
     rab: number, rcd: number, strides: Int32Array, out: Float64Array,
   ): void {
+    if (cls.direct) return this.scatterDirect(cls, bra, ket, acc, off, rab, rcd, strides, out);
     const na = ncart(cls.la), nb = ncart(cls.lb), nc = ncart(cls.lc), nd = ncart(cls.ld);
     const nF = cls.nF;
     let h1 = this.h1;
@@ -275,7 +280,7 @@ export class EriEngine {
     let cur = acc;
     let curOff = off;
     for (const st of cls.hrrBra) {
-      hrrStep(st, cur, curOff, h1, nF, bra.abx, bra.aby, bra.abz);
+      hrrStep(st, cur, curOff, h1, nF, bra.ab);
       cur = h1;
       curOff = 0;
       const t = h1; h1 = h2; h2 = t;
@@ -286,7 +291,7 @@ export class EriEngine {
     cur = h1;
     { const t = h1; h1 = h2; h2 = t; }
     for (const st of cls.hrrKet) {
-      hrrStep(st, cur, 0, h1, nab, ket.abx, ket.aby, ket.abz);
+      hrrStep(st, cur, 0, h1, nab, ket.ab);
       cur = h1;
       const t = h1; h1 = h2; h2 = t;
     }
@@ -324,34 +329,32 @@ export class EriEngine {
   }
 }
 
-/** The two vertical recurrences for one primitive quartet, in place on w. */
-function vrr(
-  cls: EriClass, w: Float64Array, p: number, q: number, rho: number,
-  pax: number, pay: number, paz: number, wpx: number, wpy: number, wpz: number,
-  qcx: number, qcy: number, qcz: number, wqx: number, wqy: number, wqz: number,
-): void {
-  const h2p = 0.5 / p;
-  const rp = rho / p;
+/**
+ * The two vertical recurrences for one primitive quartet, in place on w (table-driven).
+ * par: PA(xyz), WP(xyz), QC(xyz), WQ(xyz), 1/(2p), ρ/p, 1/(2q), ρ/q, 1/(2(p+q)).
+ */
+function vrr(cls: EriClass, w: Float64Array, par: Float64Array): void {
+  const h2p = par[12];
+  const rp = par[13];
   const bDst = cls.bDst, bS1 = cls.bS1, bS2 = cls.bS2, bN = cls.bN, bAx = cls.bAx, bM = cls.bM;
   for (let o = 0; o < bDst.length; o++) {
     const ax = bAx[o];
-    const c1 = ax === 0 ? pax : ax === 1 ? pay : paz;
-    const c2 = ax === 0 ? wpx : ax === 1 ? wpy : wpz;
+    const c1 = par[ax];
+    const c2 = par[3 + ax];
     const c3 = bN[o] * h2p;
     const c4 = c3 * rp;
     const d = bDst[o], s = bS1[o], t = bS2[o], mc = bM[o];
     for (let m = 0; m < mc; m++) w[d + m] = c1 * w[s + m] + c2 * w[s + m + 1] + c3 * w[t + m] - c4 * w[t + m + 1];
   }
   const kDst = cls.kDst;
-  if (kDst.length === 0) return;
-  const h2q = 0.5 / q;
-  const rq = rho / q;
-  const h2pq = 0.5 / (p + q);
+  const h2q = par[14];
+  const rq = par[15];
+  const h2pq = par[16];
   const kS1 = cls.kS1, kS2 = cls.kS2, kE1 = cls.kE1, kNf = cls.kNf, kNe = cls.kNe, kAx = cls.kAx, kM = cls.kM;
   for (let o = 0; o < kDst.length; o++) {
     const ax = kAx[o];
-    const c1 = ax === 0 ? qcx : ax === 1 ? qcy : qcz;
-    const c2 = ax === 0 ? wqx : ax === 1 ? wqy : wqz;
+    const c1 = par[6 + ax];
+    const c2 = par[9 + ax];
     const c3 = kNf[o] * h2q;
     const c4 = c3 * rq;
     const c5 = kNe[o] * h2pq;
@@ -362,11 +365,10 @@ function vrr(
 }
 
 function hrrStep(st: HrrStep, src: Float64Array, srcOff: number, dst: Float64Array, inner: number,
-  abx: number, aby: number, abz: number): void {
+  ab: Float64Array): void {
   const D = st.dst, U = st.srcUp, S = st.src, A = st.axis;
   for (let o = 0; o < D.length; o++) {
-    const ax = A[o];
-    const c = ax === 0 ? abx : ax === 1 ? aby : abz;
+    const c = ab[A[o]];
     const d = D[o], u = U[o] + srcOff, s = S[o] + srcOff;
     for (let i = 0; i < inner; i++) dst[d + i] = src[u + i] + c * src[s + i];
   }

@@ -29,10 +29,8 @@ export interface ShellPair {
   pc: Float64Array;
   /** √2 π^{5/4} exp(−μ R_AB²) / p, times the contraction coefficients when `segmented` */
   k: Float64Array;
-  /** A − B */
-  abx: number;
-  aby: number;
-  abz: number;
+  /** A − B (a typed array, so passing it on boxes no number) */
+  ab: Float64Array;
   /** rows of the pair = a.ncontr × b.ncontr */
   nrows: number;
   /** one contracted function on each side: coefficients folded into k */
@@ -110,9 +108,7 @@ export function makeShellPair(s1: PreparedShell, i1: number, s2: PreparedShell, 
     pa: Float64Array.from(pa),
     pc: Float64Array.from(pc),
     k: Float64Array.from(k),
-    abx,
-    aby,
-    abz,
+    ab: Float64Array.of(abx, aby, abz),
     nrows,
     segmented,
     comboStart: Int32Array.from(comboStart),
