@@ -14,7 +14,12 @@
  *
  * Work array layout: W[((f * NE) + e) * M + m], f and e cumulative Cartesian indices,
  * M = L + 1 auxiliary orders. Only the (e, f, m) that some target needs are computed:
- * e ≥ la − (Lcd − F) at ket level F, and m ≤ L − E − F.
+ * e ≥ la_min − (Lcd − F) at ket level F, and m ≤ L − E − F.
+ *
+ * Shells may carry several angular momenta sharing exponents (Pople sp shells, merged by
+ * shells.ts): a side of the class then spans la_min … la, and each combination of row
+ * angular momenta (a "kind") uses its own slice e ∈ [la_r, la_r + lb_r] of the primitive
+ * block, with its own horizontal recurrence.
  */
 import { cartIndex, cartTables, cumStart, ncart } from "./cartesian.ts";
 
@@ -60,11 +65,44 @@ export interface EriClass {
   gather: Int32Array;
   nE: number;
   nF: number;
-  /** HRR programs; bra acts on e with inner nF, ket on f with inner ncart(la)·ncart(lb) */
-  hrrBra: HrrStep[];
-  hrrKet: HrrStep[];
-  /** no HRR on either side and s/p shells only: the contracted block is already (ab|cd) */
-  direct: boolean;
+  /** kinds of the bra (row angular momenta la_r, lb_r) and of the ket */
+  braKinds: Kind[];
+  ketKinds: Kind[];
+}
+
+/** One combination of row angular momenta of a pair: (l1, l2) and its slice of e (or f). */
+export interface Kind {
+  l1: number;
+  l2: number;
+  /** first index of the slice within the class's e (f) range, and its length */
+  start: number;
+  size: number;
+}
+
+/**
+ * Kinds of a pair side with shells spanning l1min … l1 and l2min … l2, index
+ * (l1_r − l1min)·(l2 − l2min + 1) + (l2_r − l2min) (see shell-pairs.ts rowKind).
+ */
+function kinds(l1min: number, l1: number, l2min: number, l2: number): Kind[] {
+  const out: Kind[] = [];
+  const base = cumStart(l1min);
+  for (let a = l1min; a <= l1; a++)
+    for (let b = l2min; b <= l2; b++)
+      out.push({ l1: a, l2: b, start: cumStart(a) - base, size: cumStart(a + b + 1) - cumStart(a) });
+  return out;
+}
+
+const hrrCache = new Map<number, HrrStep[]>();
+
+/** hrrProgram, cached (keyed by l1, l2 and the inner length). */
+export function hrrFor(l1: number, l2: number, inner: number): HrrStep[] {
+  const key = (inner * 16 + l1) * 16 + l2;
+  let h = hrrCache.get(key);
+  if (!h) {
+    h = hrrProgram(l1, l2, inner);
+    hrrCache.set(key, h);
+  }
+  return h;
 }
 
 /** Steps turning [e = la … la+lb] × inner into [a (level la)][b (level lb)] × inner. */
@@ -104,16 +142,18 @@ export function hrrProgram(la: number, lb: number, inner: number): HrrStep[] {
   return steps;
 }
 
-/** Classes by key ((la·16 + lb)·16 + lc)·16 + ld; a plain array, looked up once per quartet. */
-const cache: (EriClass | undefined)[] = [];
+const cache = new Map<number, EriClass>();
 
-export function eriClassKey(la: number, lb: number, lc: number, ld: number): number {
-  return ((la * 16 + lb) * 16 + lc) * 16 + ld;
-}
-
-export function eriClass(la: number, lb: number, lc: number, ld: number): EriClass {
-  const key = eriClassKey(la, lb, lc, ld);
-  const hit = cache[key];
+/**
+ * The class of a bra with shells spanning lamin … la and lbmin … lb and a ket with lcmin … lc
+ * and ldmin … ld (ordinary shells: lmin = l). Requires la ≥ lb, lc ≥ ld, la+lb ≥ lc+ld.
+ */
+export function eriClass(
+  la: number, lb: number, lc: number, ld: number,
+  lamin = la, lbmin = lb, lcmin = lc, ldmin = ld,
+): EriClass {
+  const key = ((((((la * 8 + lb) * 8 + lc) * 8 + ld) * 8 + lamin) * 8 + lbmin) * 8 + lcmin) * 8 + ldmin;
+  const hit = cache.get(key);
   if (hit) return hit;
   const Lab = la + lb;
   const Lcd = lc + ld;
@@ -145,7 +185,7 @@ export function eriClass(la: number, lb: number, lc: number, ld: number): EriCla
   const kDst: number[] = [], kS1: number[] = [], kS2: number[] = [], kE1: number[] = [];
   const kNf: number[] = [], kNe: number[] = [], kAx: number[] = [], kM: number[] = [];
   for (let F = 1; F <= Lcd; F++) {
-    const eLo = cumStart(Math.max(0, la - (Lcd - F)));
+    const eLo = cumStart(Math.max(0, lamin - (Lcd - F)));
     for (let d = cumStart(F); d < cumStart(F + 1); d++) {
       const ax = tab.buildAxis[d];
       const t1 = tab.down[3 * d + ax];
@@ -168,16 +208,22 @@ export function eriClass(la: number, lb: number, lc: number, ld: number): EriCla
       }
     }
   }
-  const eLo = cumStart(la);
-  const fLo = cumStart(lc);
+  const eLo = cumStart(lamin);
+  const fLo = cumStart(lcmin);
   const nE = NE - eLo;
   const nF = NF - fLo;
   const gather = new Int32Array(nE * nF);
   for (let ei = 0; ei < nE; ei++) for (let fi = 0; fi < nF; fi++) gather[ei * nF + fi] = W(fLo + fi, eLo + ei);
-  const hrrBra = hrrProgram(la, lb, nF);
-  const hrrKet = hrrProgram(lc, ld, ncart(la) * ncart(lb));
-  let scratch = Math.max(nE * nF, ncart(la) * ncart(lb) * ncart(lc) * ncart(ld));
-  for (const st of [...hrrBra, ...hrrKet]) scratch = Math.max(scratch, st.size);
+  const braKinds = kinds(lamin, la, lbmin, lb);
+  const ketKinds = kinds(lcmin, lc, ldmin, ld);
+  let scratch = nE * nF;
+  for (const kb of braKinds)
+    for (const kk of ketKinds) {
+      const nab = ncart(kb.l1) * ncart(kb.l2);
+      scratch = Math.max(scratch, nab * ncart(kk.l1) * ncart(kk.l2));
+      for (const st of hrrFor(kb.l1, kb.l2, kk.size)) scratch = Math.max(scratch, st.size);
+      for (const st of hrrFor(kk.l1, kk.l2, nab)) scratch = Math.max(scratch, st.size);
+    }
   const cls: EriClass = {
     la, lb, lc, ld, L, M, NE,
     wsize: NF * NE * M,
@@ -187,11 +233,10 @@ export function eriClass(la: number, lb: number, lc: number, ld: number): EriCla
     kDst: Int32Array.from(kDst), kS1: Int32Array.from(kS1), kS2: Int32Array.from(kS2), kE1: Int32Array.from(kE1),
     kNf: Float64Array.from(kNf), kNe: Float64Array.from(kNe), kAx: Int32Array.from(kAx), kM: Int32Array.from(kM),
     gather, nE, nF,
-    hrrBra,
-    hrrKet,
-    direct: lb === 0 && ld === 0 && la <= 1 && lc <= 1,
+    braKinds,
+    ketKinds,
   };
-  cache[key] = cls;
+  cache.set(key, cls);
   return cls;
 }
 

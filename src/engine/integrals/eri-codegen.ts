@@ -12,8 +12,12 @@
 import { BOYS_TABLE } from "./boys.ts";
 import type { EriClass } from "./eri-class.ts";
 
-/** Classes whose unrolled recurrence has at most this many statements are generated. */
-export const MAX_UNROLLED_STATEMENTS = 500;
+/**
+ * Size limit of an unrolled loop, in estimated bytes of bytecode. V8 does not optimize larger
+ * functions (its limit is 60 KiB), and unoptimized straight-line code is far slower than the
+ * table-driven loops.
+ */
+export const MAX_UNROLLED_BYTES = 40000;
 
 let codegenAllowed: boolean | undefined;
 
@@ -28,11 +32,15 @@ function canGenerate(): boolean {
   return codegenAllowed;
 }
 
-function statementCount(cls: EriClass): number {
+/** Rough bytecode size: ~60 bytes per recurrence statement, ~25 per accumulation statement. */
+function estimatedBytes(cls: EriClass, segmented: boolean): number {
   let n = 0;
   for (let o = 0; o < cls.bM.length; o++) n += cls.bM[o];
   for (let o = 0; o < cls.kM.length; o++) n += cls.kM[o];
-  return n;
+  let acc = 0;
+  if (segmented) acc = cls.nE * cls.nF;
+  else for (const k of cls.ketKinds) acc += cls.nE * k.size;
+  return 60 * n + 25 * acc;
 }
 
 const AX = ["x", "y", "z"];
@@ -74,15 +82,16 @@ function recurrenceLines(cls: EriClass, name: (idx: number) => string): string[]
  *
  * bp = [p, K_ab, Px, Py, Pz, PAx, PAy, PAz, Cx, Cy, Cz] (C: the ket's first centre).
  * Segmented ket (`segmented`): out[k] += block. Otherwise, for each combo c of ket primitive
- * pair j: out[row_c · blk + k] += coef_c · block.
+ * pair j, with row r = kRow[c] of kind rowKind[r]: out[r · blk + e · fs + f] += coef_c ·
+ * block[e][f0 + f] over the kind's f slice (f0, fs).
  */
 export type KetLoop = (
   bp: Float64Array, nk: number, kp: Float64Array, kpc: Float64Array, kk: Float64Array,
-  kStart: Int32Array, kRow: Int32Array, kCoef: Float64Array, out: Float64Array,
+  kStart: Int32Array, kRow: Int32Array, kCoef: Float64Array, rowKind: Int32Array, out: Float64Array,
 ) => void;
 
 export function generateKetLoop(cls: EriClass, segmented: boolean): KetLoop | null {
-  if (!canGenerate() || statementCount(cls) > MAX_UNROLLED_STATEMENTS) return null;
+  if (!canGenerate() || estimatedBytes(cls, segmented) > MAX_UNROLLED_BYTES) return null;
   const L = cls.L;
   const B = BOYS_TABLE;
   const name = (idx: number) => `v${idx}`;
@@ -127,11 +136,20 @@ export function generateKetLoop(cls: EriClass, segmented: boolean): KetLoop | nu
     for (let k = 0; k < blk; k++) src.push(`out[${k}] += ${name(cls.gather[k])};`);
   } else {
     src.push("for (let c = kStart[j]; c < kStart[j + 1]; c++) {");
-    src.push(`const cf = kCoef[c], o = kRow[c] * ${blk};`);
-    for (let k = 0; k < blk; k++) src.push(`out[o + ${k}] += cf * ${name(cls.gather[k])};`);
+    src.push(`const cf = kCoef[c], r = kRow[c], o = r * ${blk};`);
+    const kinds = cls.ketKinds;
+    if (kinds.length > 1) src.push("switch (rowKind[r]) {");
+    kinds.forEach((kind, ki) => {
+      if (kinds.length > 1) src.push(`case ${ki}: {`);
+      for (let e = 0; e < cls.nE; e++)
+        for (let f = 0; f < kind.size; f++)
+          src.push(`out[o + ${e * kind.size + f}] += cf * ${name(cls.gather[e * cls.nF + kind.start + f])};`);
+      if (kinds.length > 1) src.push("break; }");
+    });
+    if (kinds.length > 1) src.push("}");
     src.push("}");
   }
   src.push("}");
-  const f = new Function("grid", `return function ketLoop(bp, nk, kp, kpc, kk, kStart, kRow, kCoef, out) {\n${src.join("\n")}\n};`);
+  const f = new Function("grid", `return function ketLoop(bp, nk, kp, kpc, kk, kStart, kRow, kCoef, rowKind, out) {\n${src.join("\n")}\n};`);
   return f(B.grid) as KetLoop;
 }

@@ -15,10 +15,10 @@
  */
 import { boys } from "./boys.ts";
 import { cumStart, ncart } from "./cartesian.ts";
-import { type EriClass, eriClass, type HrrStep } from "./eri-class.ts";
+import { type EriClass, eriClass, type HrrStep, hrrFor } from "./eri-class.ts";
 import { generateKetLoop, type KetLoop } from "./eri-codegen.ts";
 import { makeShellPair, type ShellPair } from "./shell-pairs.ts";
-import type { PreparedBasis } from "./shells.ts";
+import { mergeSharedExponents, type PreparedBasis, type PreparedShell } from "./shells.ts";
 import { componentTransform } from "./spherical.ts";
 
 interface SparseTransform {
@@ -52,7 +52,9 @@ function sparseTransform(l: number, pure: boolean): SparseTransform {
 
 export class EriEngine {
   readonly basis: PreparedBasis;
-  /** all pairs i ≥ j, index i(i+1)/2 + j */
+  /** the shells integrals are computed over (basis shells, sp halves merged) */
+  readonly shells: PreparedShell[];
+  /** all pairs i ≥ j of those shells, index i(i+1)/2 + j */
   readonly pairs: ShellPair[];
   private w: Float64Array;
   private fm: Float64Array;
@@ -97,9 +99,11 @@ export class EriEngine {
     }
   }
 
-  constructor(basis: PreparedBasis) {
+  /** `mergeShells: false` keeps sp halves apart (for tests: the merged path must agree). */
+  constructor(basis: PreparedBasis, options: { mergeShells?: boolean } = {}) {
     this.basis = basis;
-    const sh = basis.shells;
+    const sh = options.mergeShells === false ? basis.shells.slice() : mergeSharedExponents(basis.shells);
+    this.shells = sh;
     const pairs: ShellPair[] = [];
     for (let i = 0; i < sh.length; i++) for (let j = 0; j <= i; j++) pairs.push(makeShellPair(sh[i], i, sh[j], j));
     this.pairs = pairs;
@@ -136,13 +140,12 @@ export class EriEngine {
     const swap = Q.a.l + Q.b.l > P.a.l + P.b.l;
     const bra = swap ? Q : P;
     const ket = swap ? P : Q;
-    const cls = eriClass(bra.a.l, bra.b.l, ket.a.l, ket.b.l);
+    const cls = eriClass(bra.a.l, bra.b.l, ket.a.l, ket.b.l, bra.a.lmin, bra.b.lmin, ket.a.lmin, ket.b.lmin);
     this.ensure(cls);
     const blk = cls.nE * cls.nF;
     const nrab = bra.nrows;
     const nrcd = ket.nrows;
-    const acc = this.acc;
-    acc.fill(0, 0, nrab * nrcd * blk);
+    this.acc.fill(0, 0, nrab * nrcd * blk);
     this.contractPrimitives(cls, bra, ket, blk);
     // strides of the computed (a b | c d) inside the caller's (P|Q) block
     const nfPa = P.a.nfunc, nfPb = P.b.nfunc, nfQa = Q.a.nfunc, nfQb = Q.b.nfunc;
@@ -157,13 +160,17 @@ export class EriEngine {
     const out = this.out.length >= total ? this.out : (this.out = new Float64Array(total));
     for (let rab = 0; rab < nrab; rab++) {
       for (let rcd = 0; rcd < nrcd; rcd++) {
-        this.finishRows(cls, bra, ket, acc, (rab * nrcd + rcd) * blk, rab, rcd, strides, out);
+        this.finishRows(cls, bra, ket, (rab * nrcd + rcd) * blk, rab, rcd, strides, out);
       }
     }
     return out;
   }
 
-  /** Steps 1–2: accumulate contracted [e0|f0] blocks acc[rab][rcd][ei][fi]. */
+  /**
+   * Steps 1–2: contracted [e0|f0] blocks. acc[(rab·nrcd + rcd)·blk …] holds, for each row
+   * combination, only its kinds' slice [e of its bra kind][f of its ket kind]; tmp[rcd·blk …]
+   * holds the per-bra-primitive partial sums [all e][f of the ket kind].
+   */
   private contractPrimitives(cls: EriClass, bra: ShellPair, ket: ShellPair, blk: number): void {
     const ketSeg = ket.segmented;
     const loop = this.ketLoop(cls, ketSeg);
@@ -178,8 +185,8 @@ export class EriEngine {
       bp[2] = bra.pc[3 * i]; bp[3] = bra.pc[3 * i + 1]; bp[4] = bra.pc[3 * i + 2];
       bp[5] = bra.pa[3 * i]; bp[6] = bra.pa[3 * i + 1]; bp[7] = bra.pa[3 * i + 2];
       if (!bothSegmented) target.fill(0, 0, n);
-      loop(bp, ket.nprim, ket.p, ket.pc, ket.k, ket.comboStart, ket.comboRow, ket.comboCoef, target);
-      if (!bothSegmented) this.braCombos(bra, i, n);
+      loop(bp, ket.nprim, ket.p, ket.pc, ket.k, ket.comboStart, ket.comboRow, ket.comboCoef, ket.rowKind, target);
+      if (!bothSegmented) this.braCombos(cls, bra, ket, i, blk);
     }
   }
 
@@ -188,23 +195,22 @@ export class EriEngine {
     const w = this.w;
     const fm = this.fm;
     const pb = this.pb;
-    const acc = this.acc;
     const tmp = this.tmp;
     const L = cls.L;
-    const nrcd = ket.nrows;
+    const nE = cls.nE, nF = cls.nF;
     const bothSegmented = bra.segmented && ket.segmented;
     const gather = cls.gather;
     const qcx0 = ket.a.x, qcy0 = ket.a.y, qcz0 = ket.a.z;
     const kp = ket.p, kpc = ket.pc, kk = ket.k, nk = ket.nprim;
     const kStart = ket.comboStart, kRow = ket.comboRow, kCoef = ket.comboCoef;
-    const target = bothSegmented ? acc : tmp;
+    const target = bothSegmented ? this.acc : tmp;
     const par = this.par;
     for (let i = 0; i < bra.nprim; i++) {
       const p = bra.p[i];
       const kab = bra.k[i];
       const Px = bra.pc[3 * i], Py = bra.pc[3 * i + 1], Pz = bra.pc[3 * i + 2];
       const pax = bra.pa[3 * i], pay = bra.pa[3 * i + 1], paz = bra.pa[3 * i + 2];
-      if (!bothSegmented) tmp.fill(0, 0, nrcd * blk);
+      if (!bothSegmented) tmp.fill(0, 0, ket.nrows * blk);
       for (let j = 0; j < nk; j++) {
         const q = kp[j];
         const Qx = kpc[3 * j], Qy = kpc[3 * j + 1], Qz = kpc[3 * j + 2];
@@ -228,58 +234,68 @@ export class EriEngine {
         } else {
           for (let c = kStart[j]; c < kStart[j + 1]; c++) {
             const coef = kCoef[c];
-            const o = kRow[c] * blk;
-            for (let k = 0; k < blk; k++) tmp[o + k] += coef * pb[k];
+            const r = kRow[c];
+            const kind = cls.ketKinds[ket.rowKind[r]];
+            const f0 = kind.start, fs = kind.size;
+            const o = r * blk;
+            for (let e = 0; e < nE; e++)
+              for (let f = 0; f < fs; f++) tmp[o + e * fs + f] += coef * pb[e * nF + f0 + f];
           }
         }
       }
-      if (!bothSegmented) this.braCombos(bra, i, nrcd * blk);
+      if (!bothSegmented) this.braCombos(cls, bra, ket, i, blk);
     }
   }
 
-  /** acc[rab] += c · tmp for the bra combos of primitive pair i. */
-  private braCombos(bra: ShellPair, i: number, n: number): void {
+  /** acc[rab][rcd] += c · (bra kind's e slice of tmp[rcd]) for the bra combos of primitive pair i. */
+  private braCombos(cls: EriClass, bra: ShellPair, ket: ShellPair, i: number, blk: number): void {
     const acc = this.acc;
     const tmp = this.tmp;
-    if (bra.segmented) {
-      for (let k = 0; k < n; k++) acc[k] += tmp[k];
-      return;
+    const nrcd = ket.nrows;
+    const c0 = bra.segmented ? 0 : bra.comboStart[i];
+    const c1 = bra.segmented ? 1 : bra.comboStart[i + 1];
+    for (let c = c0; c < c1; c++) {
+      const coef = bra.segmented ? 1 : bra.comboCoef[c];
+      const rab = bra.segmented ? 0 : bra.comboRow[c];
+      const kb = cls.braKinds[bra.rowKind[rab]];
+      for (let rcd = 0; rcd < nrcd; rcd++) {
+        const fs = cls.ketKinds[ket.rowKind[rcd]].size;
+        const src = rcd * blk + kb.start * fs;
+        const dst = (rab * nrcd + rcd) * blk;
+        const n = kb.size * fs;
+        for (let k = 0; k < n; k++) acc[dst + k] += coef * tmp[src + k];
+      }
     }
-    for (let c = bra.comboStart[i]; c < bra.comboStart[i + 1]; c++) {
-      const coef = bra.comboCoef[c];
-      const o = bra.comboRow[c] * n;
-      for (let k = 0; k < n; k++) acc[o + k] += coef * tmp[k];
-    }
-  }
-
-  /** (a0|c0) with a, c s or p (Cartesian p need no transform): acc[a][c] straight into out. */
-  private scatterDirect(
-    cls: EriClass, bra: ShellPair, ket: ShellPair, acc: Float64Array, off: number,
-    rab: number, rcd: number, strides: Int32Array, out: Float64Array,
-  ): void {
-    const na = ncart(cls.la), nc = ncart(cls.lc);
-    const nrb = bra.b.ncontr, nrd = ket.b.ncontr;
-    const ra = (rab / nrb) | 0, rb = rab - ra * nrb;
-    const rc = (rcd / nrd) | 0, rd = rcd - rc * nrd;
-    const sa = strides[0], sc = strides[2];
-    const base = ra * na * sa + rb * strides[1] + rc * nc * sc + rd * strides[3];
-    for (let a = 0; a < na; a++) for (let c = 0; c < nc; c++) out[base + a * sa + c * sc] = acc[off + a * nc + c];
   }
 
   /** Steps 3–4 for one row combination: HRR, transforms, scatter into out. */
   private finishRows(
-    cls: EriClass, bra: ShellPair, ket: ShellPair, acc: Float64Array, off: number,
+    cls: EriClass, bra: ShellPair, ket: ShellPair, off: number,
     rab: number, rcd: number, strides: Int32Array, out: Float64Array,
   ): void {
-    if (cls.direct) return this.scatterDirect(cls, bra, ket, acc, off, rab, rcd, strides, out);
-    const na = ncart(cls.la), nb = ncart(cls.lb), nc = ncart(cls.lc), nd = ncart(cls.ld);
-    const nF = cls.nF;
+    const kb = cls.braKinds[bra.rowKind[rab]];
+    const kk = cls.ketKinds[ket.rowKind[rcd]];
+    const la = kb.l1, lb = kb.l2, lc = kk.l1, ld = kk.l2;
+    const nrb = bra.b.ncontr, nrd = ket.b.ncontr;
+    const ra = (rab / nrb) | 0, rb = rab - ra * nrb;
+    const rc = (rcd / nrd) | 0, rd = rcd - rc * nrd;
+    const sa = strides[0], sb = strides[1], sc = strides[2], sd = strides[3];
+    const oa = bra.a.rowOff[ra], ob = bra.b.rowOff[rb], oc = ket.a.rowOff[rc], od = ket.b.rowOff[rd];
+    const acc = this.acc;
+    const na = ncart(la), nb = ncart(lb), nc = ncart(lc), nd = ncart(ld);
+    if (lb === 0 && ld === 0 && la <= 1 && lc <= 1) {
+      // (a0|c0) with s or Cartesian-order p: the contracted block is already the answer
+      const base = oa * sa + ob * sb + oc * sc + od * sd;
+      for (let a = 0; a < na; a++) for (let c = 0; c < nc; c++) out[base + a * sa + c * sc] = acc[off + a * nc + c];
+      return;
+    }
+    const nF = kk.size;
     let h1 = this.h1;
     let h2 = this.h2;
     // bra HRR: [e][f] → [a][b][f]
     let cur = acc;
     let curOff = off;
-    for (const st of cls.hrrBra) {
+    for (const st of hrrFor(la, lb, nF)) {
       hrrStep(st, cur, curOff, h1, nF, bra.ab);
       cur = h1;
       curOff = 0;
@@ -290,22 +306,19 @@ export class EriEngine {
     for (let ab = 0; ab < nab; ab++) for (let f = 0; f < nF; f++) h1[f * nab + ab] = cur[curOff + ab * nF + f];
     cur = h1;
     { const t = h1; h1 = h2; h2 = t; }
-    for (const st of cls.hrrKet) {
+    for (const st of hrrFor(lc, ld, nab)) {
       hrrStep(st, cur, 0, h1, nab, ket.ab);
       cur = h1;
       const t = h1; h1 = h2; h2 = t;
     }
     // cur: [c][d][a][b] Cartesian. Transform last index and rotate, four times → [c'][d'][a'][b']
     const T = this.transforms;
-    const tb = T[cls.lb][bra.b.pure ? 1 : 0], ta = T[cls.la][bra.a.pure ? 1 : 0];
-    const td = T[cls.ld][ket.b.pure ? 1 : 0], tc = T[cls.lc][ket.a.pure ? 1 : 0];
+    const tb = T[lb][bra.b.rowPure[rb]], ta = T[la][bra.a.rowPure[ra]];
+    const td = T[ld][ket.b.rowPure[rd]], tc = T[lc][ket.a.rowPure[rc]];
     let n = nc * nd * na * nb;
     for (let step = 0; step < 4; step++) {
       const tr = step === 0 ? tb : step === 1 ? ta : step === 2 ? td : tc;
-      if (tr.identity) {
-        // a Cartesian s or p index: only the rotation of the layout is needed
-        if (tr.nin === 1) continue;
-      }
+      if (tr.identity && tr.nin === 1) continue; // an s index: nothing to transform or rotate
       const x = n / tr.nin;
       applyLast(tr, cur, h1, x);
       n = x * tr.nout;
@@ -313,10 +326,6 @@ export class EriEngine {
       const t = h1; h1 = h2; h2 = t;
     }
     // scatter: element (c, d, a, b) → out
-    const ra = Math.floor(rab / bra.b.ncontr), rb = rab % bra.b.ncontr;
-    const rc = Math.floor(rcd / ket.b.ncontr), rd = rcd % ket.b.ncontr;
-    const oa = ra * ta.nout, ob = rb * tb.nout, oc = rc * tc.nout, od = rd * td.nout;
-    const sa = strides[0], sb = strides[1], sc = strides[2], sd = strides[3];
     let k = 0;
     for (let c = 0; c < tc.nout; c++)
       for (let d = 0; d < td.nout; d++) {

@@ -31,6 +31,17 @@ export interface PreparedShell {
   nfunc: number;
   /** index of the shell's first basis function */
   offset: number;
+  /**
+   * Lowest angular momentum among the rows: l for ordinary shells; lower for a merged shell
+   * (mergeSharedExponents), whose rows have different l (an sp shell: an s row, then a p row).
+   */
+  lmin: number;
+  /** angular momentum of each row */
+  rowL: Int32Array;
+  /** first function of each row within the shell */
+  rowOff: Int32Array;
+  /** spherical (1) or Cartesian (0) per row */
+  rowPure: Uint8Array;
 }
 
 export interface PreparedBasis {
@@ -78,10 +89,51 @@ export function prepareShells(shells: readonly Shell[]): PreparedBasis {
       ncomp: nc,
       nfunc: ncontr * nc,
       offset,
+      lmin: s.l,
+      rowL: new Int32Array(ncontr).fill(s.l),
+      rowOff: Int32Array.from({ length: ncontr }, (_, r) => r * nc),
+      rowPure: new Uint8Array(ncontr).fill(s.pure ? 1 : 0),
     };
     offset += p.nfunc;
     if (s.l > maxL) maxL = s.l;
     return p;
   });
   return { shells: out, nbf: offset, maxL };
+}
+
+/**
+ * Shells for two-electron integrals: consecutive single-row shells on one atom with identical
+ * exponents and consecutive l (the halves of a Pople sp shell, or spd) become one shell whose
+ * rows have different l, so every primitive quartet is computed once for all of them.
+ * Their functions are adjacent in the basis, so the merged shell's functions are too.
+ * Shells with several rows of one l (general contractions) are left as they are.
+ */
+export function mergeSharedExponents(shells: readonly PreparedShell[]): PreparedShell[] {
+  const out: PreparedShell[] = [];
+  // a shell can absorb the next one when all its rows are single functions of consecutive l
+  const open = (t: PreparedShell) => t.ncontr === 1 || t.lmin < t.l;
+  for (const s of shells) {
+    const last = out[out.length - 1];
+    if (
+      last !== undefined && open(last) && s.ncontr === 1 && s.l === last.l + 1 && last.atom === s.atom &&
+      last.offset + last.nfunc === s.offset && last.nprim === s.nprim && last.exps.every((e, i) => e === s.exps[i])
+    ) {
+      const coef = new Float64Array((last.ncontr + 1) * s.nprim);
+      coef.set(last.coef);
+      coef.set(s.coef, last.ncontr * s.nprim);
+      out[out.length - 1] = {
+        ...last,
+        l: s.l,
+        pure: s.pure,
+        ncontr: last.ncontr + 1,
+        coef,
+        ncomp: 0, // rows differ; use rowOff and the rows' own component counts
+        nfunc: last.nfunc + s.nfunc,
+        rowL: Int32Array.from([...last.rowL, s.l]),
+        rowOff: Int32Array.from([...last.rowOff, last.nfunc]),
+        rowPure: Uint8Array.from([...last.rowPure, s.pure ? 1 : 0]),
+      };
+    } else out.push(s);
+  }
+  return out;
 }

@@ -23,12 +23,12 @@ function primitiveEri(
   const lcd = [lc[0] + ld[0], lc[1] + ld[1], lc[2] + ld[2]];
   const Ltot = lab[0] + lab[1] + lab[2] + lcd[0] + lcd[1] + lcd[2];
   const Eab = [0, 1, 2].map((k) => {
-    const e = hermiteE(la[k], lb[k], a, b, A[k] - B[k], new Float64Array(200));
+    const e = hermiteE(la[k], lb[k], a, b, A[k] - B[k], new Float64Array((la[k] + 1) * (lb[k] + 1) * (la[k] + lb[k] + 1)));
     const nt = la[k] + lb[k] + 1;
     return Array.from({ length: nt }, (_, t) => e[la[k] * (lb[k] + 1) * nt + lb[k] * nt + t]);
   });
   const Ecd = [0, 1, 2].map((k) => {
-    const e = hermiteE(lc[k], ld[k], c, d, C[k] - D[k], new Float64Array(200));
+    const e = hermiteE(lc[k], ld[k], c, d, C[k] - D[k], new Float64Array((lc[k] + 1) * (ld[k] + 1) * (lc[k] + ld[k] + 1)));
     const nt = lc[k] + ld[k] + 1;
     return Array.from({ length: nt }, (_, t) => e[lc[k] * (ld[k] + 1) * nt + ld[k] * nt + t]);
   });
