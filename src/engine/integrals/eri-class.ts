@@ -68,6 +68,8 @@ export interface EriClass {
   /** kinds of the bra (row angular momenta la_r, lb_r) and of the ket */
   braKinds: Kind[];
   ketKinds: Kind[];
+  /** HRR programs per kind combination, index braKind · ketKinds.length + ketKind */
+  hrr: { bra: HrrStep[]; ket: HrrStep[] }[];
 }
 
 /** One combination of row angular momenta of a pair: (l1, l2) and its slice of e (or f). */
@@ -217,12 +219,14 @@ export function eriClass(
   const braKinds = kinds(lamin, la, lbmin, lb);
   const ketKinds = kinds(lcmin, lc, ldmin, ld);
   let scratch = nE * nF;
+  const hrr: { bra: HrrStep[]; ket: HrrStep[] }[] = [];
   for (const kb of braKinds)
     for (const kk of ketKinds) {
       const nab = ncart(kb.l1) * ncart(kb.l2);
       scratch = Math.max(scratch, nab * ncart(kk.l1) * ncart(kk.l2));
-      for (const st of hrrFor(kb.l1, kb.l2, kk.size)) scratch = Math.max(scratch, st.size);
-      for (const st of hrrFor(kk.l1, kk.l2, nab)) scratch = Math.max(scratch, st.size);
+      const h = { bra: hrrFor(kb.l1, kb.l2, kk.size), ket: hrrFor(kk.l1, kk.l2, nab) };
+      for (const st of [...h.bra, ...h.ket]) scratch = Math.max(scratch, st.size);
+      hrr.push(h);
     }
   const cls: EriClass = {
     la, lb, lc, ld, L, M, NE,
@@ -235,6 +239,7 @@ export function eriClass(
     gather, nE, nF,
     braKinds,
     ketKinds,
+    hrr,
   };
   cache.set(key, cls);
   return cls;

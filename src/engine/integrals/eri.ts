@@ -15,7 +15,7 @@
  */
 import { boys } from "./boys.ts";
 import { cumStart, ncart } from "./cartesian.ts";
-import { type EriClass, eriClass, type HrrStep, hrrFor } from "./eri-class.ts";
+import { type EriClass, eriClass, type HrrStep } from "./eri-class.ts";
 import { generateKetLoop, type KetLoop } from "./eri-codegen.ts";
 import { makeShellPair, type ShellPair } from "./shell-pairs.ts";
 import { mergeSharedExponents, type PreparedBasis, type PreparedShell } from "./shells.ts";
@@ -290,51 +290,68 @@ export class EriEngine {
       return;
     }
     const nF = kk.size;
+    const h = cls.hrr[bra.rowKind[rab] * cls.ketKinds.length + ket.rowKind[rcd]];
     let h1 = this.h1;
     let h2 = this.h2;
     // bra HRR: [e][f] → [a][b][f]
     let cur = acc;
     let curOff = off;
-    for (const st of hrrFor(la, lb, nF)) {
-      hrrStep(st, cur, curOff, h1, nF, bra.ab);
+    for (let i = 0; i < h.bra.length; i++) {
+      hrrStep(h.bra[i], cur, curOff, h1, nF, bra.ab);
       cur = h1;
       curOff = 0;
       const t = h1; h1 = h2; h2 = t;
     }
-    // transpose to [f][ab]
     const nab = na * nb;
-    for (let ab = 0; ab < nab; ab++) for (let f = 0; f < nF; f++) h1[f * nab + ab] = cur[curOff + ab * nF + f];
-    cur = h1;
-    { const t = h1; h1 = h2; h2 = t; }
-    for (const st of hrrFor(lc, ld, nab)) {
-      hrrStep(st, cur, 0, h1, nab, ket.ab);
+    // with d an s function the data are already [a][b][c][d]; otherwise transpose to [f][ab]
+    // and run the ket HRR, which leaves [c][d][a][b]
+    const ketFirst = ld > 0;
+    if (ketFirst) {
+      for (let ab = 0; ab < nab; ab++) for (let f = 0; f < nF; f++) h1[f * nab + ab] = cur[curOff + ab * nF + f];
       cur = h1;
-      const t = h1; h1 = h2; h2 = t;
+      curOff = 0;
+      { const t = h1; h1 = h2; h2 = t; }
+      for (let i = 0; i < h.ket.length; i++) {
+        hrrStep(h.ket[i], cur, 0, h1, nab, ket.ab);
+        cur = h1;
+        const t = h1; h1 = h2; h2 = t;
+      }
     }
-    // cur: [c][d][a][b] Cartesian. Transform last index and rotate, four times → [c'][d'][a'][b']
+    // transform the last index and rotate it to the front, four times: the order comes back
     const T = this.transforms;
     const tb = T[lb][bra.b.rowPure[rb]], ta = T[la][bra.a.rowPure[ra]];
     const td = T[ld][ket.b.rowPure[rd]], tc = T[lc][ket.a.rowPure[rc]];
     let n = nc * nd * na * nb;
     for (let step = 0; step < 4; step++) {
-      const tr = step === 0 ? tb : step === 1 ? ta : step === 2 ? td : tc;
+      const tr = ketFirst
+        ? (step === 0 ? tb : step === 1 ? ta : step === 2 ? td : tc)
+        : (step === 0 ? td : step === 1 ? tc : step === 2 ? tb : ta);
       if (tr.identity && tr.nin === 1) continue; // an s index: nothing to transform or rotate
       const x = n / tr.nin;
-      applyLast(tr, cur, h1, x);
+      applyLast(tr, cur, h1, x, curOff);
+      curOff = 0;
       n = x * tr.nout;
       cur = h1;
       const t = h1; h1 = h2; h2 = t;
     }
-    // scatter: element (c, d, a, b) → out
-    let k = 0;
-    for (let c = 0; c < tc.nout; c++)
-      for (let d = 0; d < td.nout; d++) {
-        const base = (oc + c) * sc + (od + d) * sd;
-        for (let a = 0; a < ta.nout; a++) {
-          const base2 = base + (oa + a) * sa + ob * sb;
-          for (let b = 0; b < tb.nout; b++) out[base2 + b * sb] = cur[k++];
+    // scatter
+    let k = curOff;
+    if (ketFirst) {
+      for (let c = 0; c < tc.nout; c++)
+        for (let d = 0; d < td.nout; d++) {
+          const base = (oc + c) * sc + (od + d) * sd;
+          for (let a = 0; a < ta.nout; a++) {
+            const base2 = base + (oa + a) * sa + ob * sb;
+            for (let b = 0; b < tb.nout; b++) out[base2 + b * sb] = cur[k++];
+          }
         }
-      }
+    } else {
+      for (let a = 0; a < ta.nout; a++)
+        for (let b = 0; b < tb.nout; b++) {
+          const base = (oa + a) * sa + (ob + b) * sb + od * sd;
+          for (let c = 0; c < tc.nout; c++) out[base + (oc + c) * sc] = cur[k++];
+        }
+    }
   }
 }
 
@@ -383,19 +400,19 @@ function hrrStep(st: HrrStep, src: Float64Array, srcOff: number, dst: Float64Arr
   }
 }
 
-/** out[o * x + r] = Σ_i T[o][i] in[r * nin + i]  (transform last index, move it first). */
-function applyLast(tr: SparseTransform, src: Float64Array, dst: Float64Array, x: number): void {
+/** out[o * x + r] = Σ_i T[o][i] in[off + r * nin + i]  (transform last index, move it first). */
+function applyLast(tr: SparseTransform, src: Float64Array, dst: Float64Array, x: number, off: number): void {
   const nin = tr.nin;
   for (let o = 0; o < tr.nout; o++) {
     const k0 = tr.start[o], k1 = tr.start[o + 1];
     const ob = o * x;
     if (k1 - k0 === 1) {
-      const i0 = tr.idx[k0], v0 = tr.val[k0];
+      const i0 = off + tr.idx[k0], v0 = tr.val[k0];
       for (let r = 0; r < x; r++) dst[ob + r] = v0 * src[r * nin + i0];
     } else {
       for (let r = 0; r < x; r++) {
         let s = 0;
-        const rb = r * nin;
+        const rb = off + r * nin;
         for (let k = k0; k < k1; k++) s += tr.val[k] * src[rb + tr.idx[k]];
         dst[ob + r] = s;
       }

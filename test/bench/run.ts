@@ -1,0 +1,139 @@
+// The benchmark (`npm run bench`): times fieldbook's engine on fixed molecules and, when the
+// native reference program is built (scripts/build-native-ref.sh), the same cases with it in the
+// same run, and reports the ratios. Writes bench-results/bench.json and prints Markdown tables.
+// Never part of `npm test`: timings are measurements, not assertions.
+//
+//   npm run bench                      # everything
+//   npm run bench -- --only benzene    # cases whose name contains "benzene"
+//   npm run bench -- --repeat 3 --no-native
+import { mkdirSync, readFileSync, writeFileSync } from "node:fs";
+import { join } from "node:path";
+import { buildBasis } from "../../src/engine/basis/index.ts";
+import { EriEngine } from "../../src/engine/integrals/eri.ts";
+import { prepareShells, type PreparedBasis } from "../../src/engine/integrals/shells.ts";
+import { sweepUniqueQuartets, type SweepStats } from "../../src/engine/integrals/sweep.ts";
+import { parseXyz } from "../../src/engine/molecule.ts";
+import { findNativeRef, geometryPath, REPO_ROOT, runNativeEri, type NativeEriBench } from "./native.ts";
+
+interface Case {
+  molecule: string;
+  basis: string;
+}
+
+const ERI_CASES: Case[] = [
+  { molecule: "water", basis: "cc-pVDZ" },
+  { molecule: "water", basis: "cc-pVTZ" },
+  { molecule: "benzene", basis: "cc-pVDZ" },
+  { molecule: "benzene", basis: "6-31G*" },
+  { molecule: "alkane_C2H6", basis: "6-31G*" },
+  { molecule: "alkane_C4H10", basis: "6-31G*" },
+  { molecule: "alkane_C6H14", basis: "6-31G*" },
+  { molecule: "alkane_C8H18", basis: "6-31G*" },
+];
+
+/** Targets of the foundation issue, as ratios ours/native (no screening). */
+const ERI_TARGETS: Record<string, number> = { "benzene cc-pVDZ": 1.0, "benzene 6-31G*": 2.0 };
+
+function args() {
+  const a = process.argv.slice(2);
+  const get = (k: string) => (a.includes(k) ? a[a.indexOf(k) + 1] : undefined);
+  return {
+    only: get("--only"),
+    repeat: Number(get("--repeat") ?? 2),
+    native: !a.includes("--no-native"),
+    out: get("--out") ?? join(REPO_ROOT, "bench-results", "bench.json"),
+  };
+}
+
+/** Molecule from a benchmark XYZ file; its comment line may carry units=angstrom|bohr. */
+export function loadGeometry(name: string) {
+  const text = readFileSync(geometryPath(name), "utf8");
+  const comment = text.split("\n")[1] ?? "";
+  const units = /units=bohr/.test(comment) ? "bohr" : "angstrom";
+  return parseXyz(text, { units, source: name + ".xyz" });
+}
+
+export function loadBasis(name: string, basis: string): PreparedBasis {
+  const geo = loadGeometry(name);
+  return prepareShells(buildBasis(geo.atoms.map((a) => ({ symbol: a.symbol, xyz: a.xyz })), basis, "auto").shells);
+}
+
+interface EriPass extends SweepStats {
+  seconds: number;
+  integralsPerSecond: number;
+  checksum: number;
+}
+
+function eriPass(basis: PreparedBasis, threshold: number | null): EriPass {
+  const t0 = performance.now();
+  const engine = new EriEngine(basis);
+  let checksum = 0;
+  const stats = sweepUniqueQuartets(engine, threshold, (P, Q, block) => {
+    const n = P.a.nfunc * P.b.nfunc * Q.a.nfunc * Q.b.nfunc;
+    for (let k = 0; k < n; k++) checksum += block[k] * block[k];
+  });
+  const seconds = (performance.now() - t0) / 1000;
+  return { ...stats, seconds, integralsPerSecond: stats.integrals / seconds, checksum };
+}
+
+function best<T extends { seconds: number }>(repeat: number, f: () => T): T {
+  let b: T | undefined;
+  for (let r = 0; r < repeat; r++) {
+    const x = f();
+    if (!b || x.seconds < b.seconds) b = x;
+    if (x.seconds > 20) break;
+  }
+  return b!;
+}
+
+function fmt(x: number | undefined, digits = 3): string {
+  return x === undefined || !Number.isFinite(x) ? "–" : x.toFixed(digits);
+}
+
+function main() {
+  const opt = args();
+  const native = opt.native ? findNativeRef() : null;
+  if (opt.native && !native) console.log("native reference not built (scripts/build-native-ref.sh): ratios omitted\n");
+  const results: unknown[] = [];
+  const rows: string[] = [];
+  for (const c of ERI_CASES) {
+    const name = `${c.molecule} ${c.basis}`;
+    if (opt.only && !name.includes(opt.only)) continue;
+    const basis = loadBasis(c.molecule, c.basis);
+    const plain = best(opt.repeat, () => eriPass(basis, null));
+    const screened = best(opt.repeat, () => eriPass(basis, 1e-12));
+    let nat: NativeEriBench | undefined;
+    if (native) {
+      for (let r = 0; r < opt.repeat; r++) {
+        const x = runNativeEri(geometryPath(c.molecule), c.basis, { ref: native });
+        if (!nat || x.noScreening.seconds < nat.noScreening.seconds) nat = x;
+      }
+    }
+    const ratio = nat ? plain.seconds / nat.noScreening.seconds : undefined;
+    const ratioS = nat ? screened.seconds / nat.schwarz.totalSeconds : undefined;
+    const target = ERI_TARGETS[name];
+    results.push({ case: name, nbf: basis.nbf, fieldbook: { noScreening: plain, schwarz1e12: screened },
+      native: nat ? { nbf: nat.nbf, noScreening: nat.noScreening, schwarz: nat.schwarz } : null,
+      ratio: { noScreening: ratio ?? null, schwarz: ratioS ?? null }, target: target ?? null });
+    rows.push(`| ${name} | ${basis.nbf} | ${plain.quartets} | ${fmt(plain.seconds)} | ${fmt(screened.seconds)} | ` +
+      `${(plain.integralsPerSecond / 1e6).toFixed(1)} | ${fmt(nat?.noScreening.seconds)} | ${fmt(nat?.schwarz.totalSeconds)} | ` +
+      `${fmt(ratio, 2)} | ${fmt(ratioS, 2)} | ${target ? `≤ ${target.toFixed(1)}` : ""} |`);
+    console.log(rows[rows.length - 1]);
+  }
+  const header = [
+    "| case | nbf | unique shell quartets | fieldbook s (no screening) | fieldbook s (Schwarz 1e-12) | M integrals/s | native s | native s (Schwarz) | ratio | ratio (Schwarz) | target |",
+    "|---|---:|---:|---:|---:|---:|---:|---:|---:|---:|---|",
+  ];
+  const table = ["## All unique ERIs", "", ...header, ...rows].join("\n");
+  console.log("\n" + table);
+  mkdirSync(join(opt.out, ".."), { recursive: true });
+  writeFileSync(opt.out, JSON.stringify({
+    date: new Date().toISOString(), node: process.version, platform: `${process.platform}-${process.arch}`,
+    note: "fieldbook runs single-threaded in one process; native_ref one process per run; times are the best of --repeat",
+    eri: results,
+  }, null, 2));
+  writeFileSync(opt.out.replace(/\.json$/, ".md"), table + "\n");
+  console.log(`\nwrote ${opt.out}`);
+}
+
+if (import.meta.url === `file://${process.argv[1]}`) main();
