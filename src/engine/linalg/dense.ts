@@ -1,0 +1,97 @@
+/**
+ * Small dense linear algebra on row-major Float64Arrays: a[i * cols + j]. Square n × n unless
+ * the dimensions are given. Allocation happens only where a result is returned.
+ */
+import { EigenvalueDecomposition, Matrix } from "ml-matrix";
+
+/** C = A·B with A (n × k), B (k × m). */
+export function matmul(A: Float64Array, B: Float64Array, n: number, k: number, m: number, C = new Float64Array(n * m)): Float64Array {
+  C.fill(0);
+  for (let i = 0; i < n; i++) {
+    const ci = i * m;
+    for (let p = 0; p < k; p++) {
+      const a = A[i * k + p];
+      if (a === 0) continue;
+      const bp = p * m;
+      for (let j = 0; j < m; j++) C[ci + j] += a * B[bp + j];
+    }
+  }
+  return C;
+}
+
+/** Aᵀ (n × m → m × n). */
+export function transpose(A: Float64Array, n: number, m: number): Float64Array {
+  const T = new Float64Array(n * m);
+  for (let i = 0; i < n; i++) for (let j = 0; j < m; j++) T[j * n + i] = A[i * m + j];
+  return T;
+}
+
+/** Xᵀ A X with X (n × m), A (n × n): the m × m transformed matrix. */
+export function congruence(A: Float64Array, X: Float64Array, n: number, m: number): Float64Array {
+  const AX = matmul(A, X, n, n, m);
+  return matmul(transpose(X, n, m), AX, m, n, m);
+}
+
+/** tr(A·B) for square A, B; with B symmetric this is Σ_ij A_ij B_ij. */
+export function traceProduct(A: Float64Array, B: Float64Array, n: number): number {
+  let s = 0;
+  for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) s += A[i * n + j] * B[j * n + i];
+  return s;
+}
+
+/** In place: A = (A + Aᵀ)/2. */
+export function symmetrize(A: Float64Array, n: number): Float64Array {
+  for (let i = 0; i < n; i++)
+    for (let j = 0; j < i; j++) {
+      const v = 0.5 * (A[i * n + j] + A[j * n + i]);
+      A[i * n + j] = v;
+      A[j * n + i] = v;
+    }
+  return A;
+}
+
+export interface SymmetricEigen {
+  /** ascending */
+  values: Float64Array;
+  /** eigenvectors as columns: vectors[i * n + k] is component i of vector k */
+  vectors: Float64Array;
+}
+
+/**
+ * Eigen-decomposition of a symmetric matrix. The matrix is symmetrized explicitly first: the
+ * library decides "symmetric" by exact equality otherwise, and a numerically symmetric Fock
+ * matrix could silently take the general (non-symmetric) path.
+ */
+export function symmetricEigen(A: Float64Array, n: number): SymmetricEigen {
+  const rows: number[][] = [];
+  for (let i = 0; i < n; i++) {
+    const r = new Array<number>(n);
+    for (let j = 0; j < n; j++) r[j] = i === j ? A[i * n + i] : 0.5 * (A[i * n + j] + A[j * n + i]);
+    rows.push(r);
+  }
+  const evd = new EigenvalueDecomposition(new Matrix(rows), { assumeSymmetric: true });
+  const vals = evd.realEigenvalues;
+  const V = evd.eigenvectorMatrix;
+  const order = Array.from({ length: n }, (_, k) => k).sort((a, b) => vals[a] - vals[b]);
+  const values = new Float64Array(n);
+  const vectors = new Float64Array(n * n);
+  order.forEach((k, c) => {
+    values[c] = vals[k];
+    for (let i = 0; i < n; i++) vectors[i * n + c] = V.get(i, k);
+  });
+  return { values, vectors };
+}
+
+/** Largest |A_ij − B_ij|. */
+export function maxAbsDiff(A: Float64Array, B: Float64Array): number {
+  let m = 0;
+  for (let i = 0; i < A.length; i++) m = Math.max(m, Math.abs(A[i] - B[i]));
+  return m;
+}
+
+/** √(mean of squares) of A − B. */
+export function rmsDiff(A: Float64Array, B: Float64Array): number {
+  let s = 0;
+  for (let i = 0; i < A.length; i++) s += (A[i] - B[i]) ** 2;
+  return Math.sqrt(s / A.length);
+}

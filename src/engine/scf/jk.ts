@@ -1,0 +1,255 @@
+/**
+ * Coulomb and exchange matrices from electron-repulsion integrals:
+ *   J[D]_μν = Σ_λσ (μν|λσ) D_λσ,    K[D]_μν = Σ_λσ (μλ|νσ) D_λσ
+ * for one or more symmetric densities at once (RHF: one; UHF/ROHF: α and β).
+ *
+ * Integrals come from the unique shell quartets (8-fold symmetry). Small systems keep the
+ * computed blocks in memory ("in-core"); when they would not fit in the memory budget, every
+ * build recomputes the quartets it needs ("direct"). Either way a quartet is skipped when its
+ * Schwarz bound times the largest density element it touches is below the threshold, which
+ * makes builds from a density change ΔD (incremental Fock builds) cheap near convergence.
+ *
+ * Digestion of one block: every element v of the (A B | C D) block carries the scale
+ * s = ½[A=B]·½[C=D]·½[AB=CD], which makes the sum over block elements count each distinct
+ * integral exactly once per permutation; then J_ab += 2sv D_cd, J_cd += 2sv D_ab,
+ * K_ac += sv D_bd, K_ad += sv D_bc, K_bc += sv D_ad, K_bd += sv D_ac, and finally J ← J + Jᵀ,
+ * K ← K + Kᵀ.
+ */
+import { EriEngine } from "../integrals/eri.ts";
+import { computeSchwarzFactors } from "../integrals/screening.ts";
+import type { ShellPair } from "../integrals/shell-pairs.ts";
+import type { PreparedBasis } from "../integrals/shells.ts";
+
+export interface JkOptions {
+  /** skip quartets whose bound is below this (hartree-scale contribution); default 1e-12 */
+  threshold?: number;
+  /** largest in-core store in bytes; default 4 GiB */
+  memoryBytes?: number;
+  /** force a mode instead of choosing by size */
+  mode?: "in-core" | "direct";
+}
+
+export interface JkStats {
+  mode: "in-core" | "direct";
+  /** bytes held by the in-core store */
+  storedBytes: number;
+  /** unique shell quartets above the Schwarz threshold */
+  quartets: number;
+  /** quartets digested (or computed) by the last build */
+  lastBuildQuartets: number;
+  /** seconds spent computing integrals for the store (in-core) */
+  integralSeconds: number;
+}
+
+const CHUNK = 1 << 22; // doubles per storage chunk (32 MiB)
+
+export class JkBuilder {
+  readonly nbf: number;
+  readonly engine: EriEngine;
+  readonly stats: JkStats;
+  private threshold: number;
+  /** surviving quartets as pair indices (bra, ket) */
+  private qBra: Int32Array;
+  private qKet: Int32Array;
+  /** in-core: chunk index and offset of each quartet's block */
+  private qChunk: Int32Array | null = null;
+  private qOff: Int32Array | null = null;
+  private chunks: Float64Array[] = [];
+  /** per shell pair (engine pair index) the largest |D| element, refreshed per build */
+  private pairDmax: Float64Array;
+  private shellPairIndex: (i: number, j: number) => number;
+
+  constructor(basis: PreparedBasis, options: JkOptions = {}) {
+    this.nbf = basis.nbf;
+    this.threshold = options.threshold ?? 1e-12;
+    this.engine = new EriEngine(basis);
+    const pairs = this.engine.pairs;
+    computeSchwarzFactors(this.engine);
+    const bra: number[] = [];
+    const ket: number[] = [];
+    let doubles = 0;
+    for (let i = 0; i < pairs.length; i++) {
+      const P = pairs[i];
+      for (let j = 0; j <= i; j++) {
+        const Q = pairs[j];
+        if (P.schwarz * Q.schwarz < this.threshold) continue;
+        bra.push(i);
+        ket.push(j);
+        doubles += P.a.nfunc * P.b.nfunc * Q.a.nfunc * Q.b.nfunc;
+      }
+    }
+    this.qBra = Int32Array.from(bra);
+    this.qKet = Int32Array.from(ket);
+    this.pairDmax = new Float64Array(pairs.length);
+    this.shellPairIndex = (i, j) => this.engine.pairIndex(i, j);
+    const budget = options.memoryBytes ?? 4 * 1024 ** 3;
+    const mode = options.mode ?? (doubles * 8 <= budget ? "in-core" : "direct");
+    this.stats = { mode, storedBytes: 0, quartets: bra.length, lastBuildQuartets: 0, integralSeconds: 0 };
+    if (mode === "in-core") this.store();
+  }
+
+  private store(): void {
+    const t0 = performance.now();
+    const n = this.qBra.length;
+    const qChunk = new Int32Array(n);
+    const qOff = new Int32Array(n);
+    const pairs = this.engine.pairs;
+    let chunk = new Float64Array(CHUNK);
+    let used = 0;
+    let bytes = 0;
+    for (let q = 0; q < n; q++) {
+      const P = pairs[this.qBra[q]];
+      const Q = pairs[this.qKet[q]];
+      const size = P.a.nfunc * P.b.nfunc * Q.a.nfunc * Q.b.nfunc;
+      if (used + size > chunk.length) {
+        this.chunks.push(chunk.subarray(0, used));
+        bytes += used * 8;
+        chunk = new Float64Array(Math.max(CHUNK, size));
+        used = 0;
+      }
+      const blk = this.engine.compute(P, Q);
+      chunk.set(blk.subarray(0, size), used);
+      qChunk[q] = this.chunks.length;
+      qOff[q] = used;
+      used += size;
+    }
+    this.chunks.push(chunk.subarray(0, used));
+    bytes += used * 8;
+    this.qChunk = qChunk;
+    this.qOff = qOff;
+    this.stats.storedBytes = bytes;
+    this.stats.integralSeconds = (performance.now() - t0) / 1000;
+  }
+
+  /**
+   * J (of the sum of the densities) and K (of each density) for symmetric densities.
+   * `wantK` false skips exchange. Results are new nbf × nbf arrays.
+   */
+  build(densities: Float64Array[], wantK = true): { J: Float64Array; K: Float64Array[] } {
+    const n = this.nbf;
+    const nd = densities.length;
+    const Dt = new Float64Array(n * n);
+    for (const D of densities) for (let k = 0; k < n * n; k++) Dt[k] += D[k];
+    const J = new Float64Array(n * n);
+    const K = densities.map(() => new Float64Array(n * n));
+    this.updatePairDmax(densities, Dt);
+    const pairs = this.engine.pairs;
+    const pd = this.pairDmax;
+    const pidx = this.shellPairIndex;
+    const th = this.threshold;
+    let built = 0;
+    for (let q = 0; q < this.qBra.length; q++) {
+      const P = pairs[this.qBra[q]];
+      const Q = pairs[this.qKet[q]];
+      // density screening: the largest density element any of J or K would multiply
+      const ia = P.ia, ib = P.ib, ic = Q.ia, id = Q.ib;
+      const dmax = Math.max(
+        pd[this.qBra[q]], pd[this.qKet[q]],
+        pd[pidx(ia, ic)], pd[pidx(ia, id)], pd[pidx(ib, ic)], pd[pidx(ib, id)],
+      );
+      if (P.schwarz * Q.schwarz * dmax < th) continue;
+      built++;
+      let blk: Float64Array;
+      let off = 0;
+      if (this.qChunk !== null) {
+        blk = this.chunks[this.qChunk[q]];
+        off = this.qOff![q];
+      } else blk = this.engine.compute(P, Q);
+      this.digest(P, Q, blk, off, densities, Dt, J, K, nd, wantK);
+    }
+    this.stats.lastBuildQuartets = built;
+    finishSymmetric(J, n);
+    for (const k of K) finishSymmetric(k, n);
+    return { J, K };
+  }
+
+  private updatePairDmax(densities: Float64Array[], Dt: Float64Array): void {
+    const n = this.nbf;
+    const pairs = this.engine.pairs;
+    for (let p = 0; p < pairs.length; p++) {
+      const A = pairs[p].a, B = pairs[p].b;
+      let m = 0;
+      for (let a = A.offset; a < A.offset + A.nfunc; a++)
+        for (let b = B.offset; b < B.offset + B.nfunc; b++) {
+          m = Math.max(m, Math.abs(Dt[a * n + b]));
+          for (const D of densities) m = Math.max(m, Math.abs(D[a * n + b]));
+        }
+      this.pairDmax[p] = m;
+    }
+  }
+
+  private digest(
+    P: ShellPair, Q: ShellPair, blk: Float64Array, off: number,
+    Ds: Float64Array[], Dt: Float64Array, J: Float64Array, Ks: Float64Array[], nd: number, wantK: boolean,
+  ): void {
+    const n = this.nbf;
+    const A = P.a, B = P.b, C = Q.a, D = Q.b;
+    const na = A.nfunc, nb = B.nfunc, nc = C.nfunc, ndd = D.nfunc;
+    const a0 = A.offset, b0 = B.offset, c0 = C.offset, d0 = D.offset;
+    let s = 1;
+    if (P.ia === P.ib) s *= 0.5;
+    if (Q.ia === Q.ib) s *= 0.5;
+    if (P === Q) s *= 0.5;
+    // Coulomb: J_ab += 2 s Σ_cd v D_cd;  J_cd += 2 s Σ_ab v D_ab
+    const ncd = nc * ndd;
+    let k = off;
+    for (let a = 0; a < na; a++) {
+      const ia = (a0 + a) * n;
+      for (let b = 0; b < nb; b++) {
+        const dab = Dt[ia + b0 + b];
+        let jab = 0;
+        for (let c = 0; c < nc; c++) {
+          const ic = (c0 + c) * n + d0;
+          for (let d = 0; d < ndd; d++) {
+            const v = blk[k + c * ndd + d];
+            jab += v * Dt[ic + d];
+            J[ic + d] += 2 * s * v * dab;
+          }
+        }
+        J[ia + b0 + b] += 2 * s * jab;
+        k += ncd;
+      }
+    }
+    if (!wantK) return;
+    for (let x = 0; x < nd; x++) {
+      const Dm = Ds[x];
+      const K = Ks[x];
+      k = off;
+      for (let a = 0; a < na; a++) {
+        const ia = (a0 + a) * n;
+        for (let b = 0; b < nb; b++) {
+          const ib = (b0 + b) * n;
+          for (let c = 0; c < nc; c++) {
+            const ic = c0 + c;
+            const dbc = Dm[ib + ic];
+            const dac = Dm[ia + ic];
+            let kac = 0;
+            let kbc = 0;
+            for (let d = 0; d < ndd; d++) {
+              const v = s * blk[k++];
+              const id = d0 + d;
+              kac += v * Dm[ib + id];
+              kbc += v * Dm[ia + id];
+              K[ia + id] += v * dbc;
+              K[ib + id] += v * dac;
+            }
+            K[ia + ic] += kac;
+            K[ib + ic] += kbc;
+          }
+        }
+      }
+    }
+  }
+}
+
+/** M ← M + Mᵀ. */
+function finishSymmetric(M: Float64Array, n: number): void {
+  for (let i = 0; i < n; i++) {
+    M[i * n + i] *= 2;
+    for (let j = 0; j < i; j++) {
+      const v = M[i * n + j] + M[j * n + i];
+      M[i * n + j] = v;
+      M[j * n + i] = v;
+    }
+  }
+}
