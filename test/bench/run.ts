@@ -13,7 +13,9 @@ import { EriEngine } from "../../src/engine/integrals/eri.ts";
 import { prepareShells, type PreparedBasis } from "../../src/engine/integrals/shells.ts";
 import { sweepUniqueQuartets, type SweepStats } from "../../src/engine/integrals/sweep.ts";
 import { parseXyz } from "../../src/engine/molecule.ts";
-import { findNativeRef, geometryPath, REPO_ROOT, runNativeEri, type NativeEriBench } from "./native.ts";
+import { nuclearRepulsion } from "../../src/engine/molecule.ts";
+import { runScf } from "../../src/engine/scf/scf.ts";
+import { findNativeRef, geometryPath, REPO_ROOT, runNativeEri, runNativeScf, type NativeEriBench, type NativeScf } from "./native.ts";
 
 interface Case {
   molecule: string;
@@ -31,6 +33,11 @@ const ERI_CASES: Case[] = [
   { molecule: "alkane_C8H18", basis: "6-31G*" },
 ];
 
+const SCF_CASES: Case[] = ERI_CASES;
+
+/** Targets of the SCF issue, as ratios ours/native (whole RHF run). */
+const SCF_TARGETS: Record<string, number> = { "benzene cc-pVDZ": 1.0, "alkane_C8H18 6-31G*": 1.0 };
+
 /** Targets of the foundation issue, as ratios ours/native (no screening). */
 const ERI_TARGETS: Record<string, number> = { "benzene cc-pVDZ": 1.0, "benzene 6-31G*": 2.0 };
 
@@ -41,6 +48,7 @@ function args() {
     only: get("--only"),
     repeat: Number(get("--repeat") ?? 2),
     native: !a.includes("--no-native"),
+    scfOnly: a.includes("--scf-only"),
     out: get("--out") ?? join(REPO_ROOT, "bench-results", "bench.json"),
   };
 }
@@ -76,6 +84,32 @@ function eriPass(basis: PreparedBasis, threshold: number | null): EriPass {
   return { ...stats, seconds, integralsPerSecond: stats.integrals / seconds, checksum };
 }
 
+interface RhfPass {
+  nbf: number;
+  energy: number;
+  converged: boolean;
+  iterations: number;
+  seconds: number;
+  integralSeconds: number;
+  storedBytes: number;
+  maxRssBytes: number;
+}
+
+/** One whole RHF calculation: one-electron and two-electron integrals, guess, iterations. */
+function rhfPass(c: Case): RhfPass {
+  const geo = loadGeometry(c.molecule);
+  const t0 = performance.now();
+  const basis = loadBasis(c.molecule, c.basis);
+  const electrons = geo.atoms.reduce((s, a) => s + a.z, 0);
+  const r = runScf({
+    basis, nuclei: geo.atoms.map((a) => ({ charge: a.z, x: a.xyz[0], y: a.xyz[1], z: a.xyz[2] })),
+    nuclearRepulsion: nuclearRepulsion({ atoms: geo.atoms }), nalpha: electrons / 2, nbeta: electrons / 2, reference: "rhf",
+  });
+  const seconds = (performance.now() - t0) / 1000;
+  return { nbf: basis.nbf, energy: r.energy, converged: r.converged, iterations: r.iterations.length, seconds,
+    integralSeconds: r.jk.integralSeconds, storedBytes: r.jk.storedBytes, maxRssBytes: process.resourceUsage().maxRSS * 1024 };
+}
+
 function best<T extends { seconds: number }>(repeat: number, f: () => T): T {
   let b: T | undefined;
   for (let r = 0; r < repeat; r++) {
@@ -96,7 +130,7 @@ function main() {
   if (opt.native && !native) console.log("native reference not built (scripts/build-native-ref.sh): ratios omitted\n");
   const results: unknown[] = [];
   const rows: string[] = [];
-  for (const c of ERI_CASES) {
+  for (const c of opt.scfOnly ? [] : ERI_CASES) {
     const name = `${c.molecule} ${c.basis}`;
     if (opt.only && !name.includes(opt.only)) continue;
     const basis = loadBasis(c.molecule, c.basis);
@@ -120,17 +154,44 @@ function main() {
       `${fmt(ratio, 2)} | ${fmt(ratioS, 2)} | ${target ? `≤ ${target.toFixed(1)}` : ""} |`);
     console.log(rows[rows.length - 1]);
   }
+  const scfRows: string[] = [];
+  const scfResults: unknown[] = [];
+  for (const c of SCF_CASES) {
+    const name = `${c.molecule} ${c.basis}`;
+    if (opt.only && !name.includes(opt.only)) continue;
+    const r = best(opt.repeat, () => rhfPass(c));
+    let nat: NativeScf | undefined;
+    if (native) {
+      for (let k = 0; k < opt.repeat; k++) {
+        const x = runNativeScf(geometryPath(c.molecule), c.basis, { ref: native, mp2: "none" });
+        if (!nat || x.seconds.total < nat.seconds.total) nat = x;
+      }
+    }
+    const ratio = nat ? r.seconds / nat.seconds.total : undefined;
+    const target = SCF_TARGETS[name];
+    scfResults.push({ case: name, fieldbook: r, native: nat ? { energy: nat.energy, iterations: nat.iterations, seconds: nat.seconds } : null,
+      ratio: ratio ?? null, target: target ?? null });
+    scfRows.push(`| ${name} | ${r.nbf} | ${r.energy.toFixed(10)} | ${r.iterations} | ${fmt(r.integralSeconds)} | ${fmt(r.seconds)} | ` +
+      `${(r.storedBytes / 2 ** 20).toFixed(0)} | ${(r.maxRssBytes / 2 ** 20).toFixed(0)} | ${nat ? nat.energy.toFixed(10) : "–"} | ${nat?.iterations ?? "–"} | ` +
+      `${fmt(nat?.seconds.total)} | ${fmt(ratio, 2)} | ${target ? `≤ ${target.toFixed(1)}` : ""} |`);
+    console.log(scfRows[scfRows.length - 1]);
+  }
   const header = [
     "| case | nbf | unique shell quartets | fieldbook s (no screening) | fieldbook s (Schwarz 1e-12) | M integrals/s | native s | native s (Schwarz) | ratio | ratio (Schwarz) | target |",
     "|---|---:|---:|---:|---:|---:|---:|---:|---:|---:|---|",
   ];
-  const table = ["## All unique ERIs", "", ...header, ...rows].join("\n");
+  const scfHeader = [
+    "| case | nbf | E(RHF) fieldbook | iterations | ERI s | total s | ERI store MiB | peak RSS MiB | E(RHF) native | native iterations | native total s | ratio | target |",
+    "|---|---:|---:|---:|---:|---:|---:|---:|---:|---:|---:|---:|---|",
+  ];
+  const table = ["## All unique ERIs", "", ...header, ...rows, "", "## RHF (SAD guess, DIIS, converged to 1e-10 Eh)", "", ...scfHeader, ...scfRows].join("\n");
   console.log("\n" + table);
   mkdirSync(join(opt.out, ".."), { recursive: true });
   writeFileSync(opt.out, JSON.stringify({
     date: new Date().toISOString(), node: process.version, platform: `${process.platform}-${process.arch}`,
     note: "fieldbook runs single-threaded in one process; native_ref one process per run; times are the best of --repeat",
     eri: results,
+    rhf: scfResults,
   }, null, 2));
   writeFileSync(opt.out.replace(/\.json$/, ".md"), table + "\n");
   console.log(`\nwrote ${opt.out}`);

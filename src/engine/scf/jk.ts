@@ -108,7 +108,7 @@ export class JkBuilder {
         used = 0;
       }
       const blk = this.engine.compute(P, Q);
-      chunk.set(blk.subarray(0, size), used);
+      for (let k = 0; k < size; k++) chunk[used + k] = blk[k];
       qChunk[q] = this.chunks.length;
       qOff[q] = used;
       used += size;
@@ -155,6 +155,7 @@ export class JkBuilder {
         blk = this.chunks[this.qChunk[q]];
         off = this.qOff![q];
       } else blk = this.engine.compute(P, Q);
+      if (nd > 2) throw new Error("J/K builds take one or two densities");
       this.digest(P, Q, blk, off, densities, Dt, J, K, nd, wantK);
     }
     this.stats.lastBuildQuartets = built;
@@ -178,6 +179,11 @@ export class JkBuilder {
     }
   }
 
+  /**
+   * One block into J and K in a single pass. The innermost index d runs along rows of every
+   * matrix it touches (J_cd, D_cd, D_ad, D_bd, K_ad, K_bd), so accesses are contiguous; the
+   * other four updates are hoisted out of the d loop.
+   */
   private digest(
     P: ShellPair, Q: ShellPair, blk: Float64Array, off: number,
     Ds: Float64Array[], Dt: Float64Array, J: Float64Array, Ks: Float64Array[], nd: number, wantK: boolean,
@@ -190,53 +196,65 @@ export class JkBuilder {
     if (P.ia === P.ib) s *= 0.5;
     if (Q.ia === Q.ib) s *= 0.5;
     if (P === Q) s *= 0.5;
-    // Coulomb: J_ab += 2 s Σ_cd v D_cd;  J_cd += 2 s Σ_ab v D_ab
-    const ncd = nc * ndd;
+    const s2 = 2 * s;
+    const D1 = Ds[0], K1 = Ks[0];
+    const two = wantK && nd === 2;
+    const D2 = two ? Ds[1] : D1, K2 = two ? Ks[1] : K1;
     let k = off;
     for (let a = 0; a < na; a++) {
       const ia = (a0 + a) * n;
       for (let b = 0; b < nb; b++) {
-        const dab = Dt[ia + b0 + b];
+        const ib = (b0 + b) * n;
+        const dab = s2 * Dt[ia + b0 + b];
         let jab = 0;
         for (let c = 0; c < nc; c++) {
           const ic = (c0 + c) * n + d0;
-          for (let d = 0; d < ndd; d++) {
-            const v = blk[k + c * ndd + d];
-            jab += v * Dt[ic + d];
-            J[ic + d] += 2 * s * v * dab;
-          }
-        }
-        J[ia + b0 + b] += 2 * s * jab;
-        k += ncd;
-      }
-    }
-    if (!wantK) return;
-    for (let x = 0; x < nd; x++) {
-      const Dm = Ds[x];
-      const K = Ks[x];
-      k = off;
-      for (let a = 0; a < na; a++) {
-        const ia = (a0 + a) * n;
-        for (let b = 0; b < nb; b++) {
-          const ib = (b0 + b) * n;
-          for (let c = 0; c < nc; c++) {
-            const ic = c0 + c;
-            const dbc = Dm[ib + ic];
-            const dac = Dm[ia + ic];
-            let kac = 0;
-            let kbc = 0;
+          const iad = ia + d0, ibd = ib + d0;
+          if (!wantK) {
             for (let d = 0; d < ndd; d++) {
-              const v = s * blk[k++];
-              const id = d0 + d;
-              kac += v * Dm[ib + id];
-              kbc += v * Dm[ia + id];
-              K[ia + id] += v * dbc;
-              K[ib + id] += v * dac;
+              const v = blk[k + d];
+              jab += v * Dt[ic + d];
+              J[ic + d] += v * dab;
             }
-            K[ia + ic] += kac;
-            K[ib + ic] += kbc;
+          } else if (!two) {
+            const dbc = s * D1[ib + c0 + c], dac = s * D1[ia + c0 + c];
+            let kac = 0, kbc = 0;
+            for (let d = 0; d < ndd; d++) {
+              const v = blk[k + d];
+              jab += v * Dt[ic + d];
+              J[ic + d] += v * dab;
+              kac += v * D1[ibd + d];
+              kbc += v * D1[iad + d];
+              K1[iad + d] += v * dbc;
+              K1[ibd + d] += v * dac;
+            }
+            K1[ia + c0 + c] += s * kac;
+            K1[ib + c0 + c] += s * kbc;
+          } else {
+            const dbc = s * D1[ib + c0 + c], dac = s * D1[ia + c0 + c];
+            const ebc = s * D2[ib + c0 + c], eac = s * D2[ia + c0 + c];
+            let kac = 0, kbc = 0, lac = 0, lbc = 0;
+            for (let d = 0; d < ndd; d++) {
+              const v = blk[k + d];
+              jab += v * Dt[ic + d];
+              J[ic + d] += v * dab;
+              kac += v * D1[ibd + d];
+              kbc += v * D1[iad + d];
+              K1[iad + d] += v * dbc;
+              K1[ibd + d] += v * dac;
+              lac += v * D2[ibd + d];
+              lbc += v * D2[iad + d];
+              K2[iad + d] += v * ebc;
+              K2[ibd + d] += v * eac;
+            }
+            K1[ia + c0 + c] += s * kac;
+            K1[ib + c0 + c] += s * kbc;
+            K2[ia + c0 + c] += s * lac;
+            K2[ib + c0 + c] += s * lbc;
           }
+          k += ndd;
         }
+        J[ia + b0 + b] += s2 * jab;
       }
     }
   }

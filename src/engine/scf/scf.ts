@@ -193,8 +193,12 @@ export function runScf(
   let D: [Float64Array, Float64Array] = [new Float64Array(n * n), new Float64Array(n * n)];
   let energy = 0;
 
+  // the orbitals the current density was made from (returned when not converged, so that
+  // C, D and the energy belong together)
+  let Cd: [Float64Array, Float64Array] = state.C;
   for (let it = 1; it <= o.maxIterations; it++) {
     const t0 = performance.now();
+    Cd = state.C;
     let Da = density(state.C[0], nalpha);
     let Db = reference === "rhf" ? Da : density(state.C[1], nbeta);
     if (o.damping > 0 && Dprev) {
@@ -325,7 +329,7 @@ export function runScf(
     reference, converged, iterations, energy, nalpha, nbeta, orbitals,
     orthogonalization: { kind: orth.kind, dropped: orth.dropped, minEigenvalue: orth.minEigenvalue, threshold: orth.threshold, nmo: m },
     jk: jk.stats,
-    matrices: { S, T, V, H, C: converged ? finalC : state.C, D, F, J, K, orth, jk },
+    matrices: { S, T, V, H, C: converged ? finalC : Cd, D, F, J, K, orth, jk },
   };
 }
 

@@ -1,0 +1,147 @@
+/**
+ * The engine's one entry point: run(input, onEvent) → a plain, JSON-serializable result.
+ * Input is plain data (atoms in bohr, charge, multiplicity, basis assignment, method and
+ * settings); nothing here knows about files, YAML, hashes or pages.
+ *
+ * Bad input (impossible charge/multiplicity, RHF on an open shell, an element the basis lacks)
+ * throws an InputError before any work. A calculation that does not converge returns normally
+ * with status "not-converged".
+ */
+import { type BasisAssignment, buildBasis, type Harmonics } from "./basis/index.ts";
+import type { PointCharge } from "./integrals/one-electron.ts";
+import { prepareShells } from "./integrals/shells.ts";
+import { type Atom, electronCount, hillFormula, nuclearRepulsion, validateMolecule } from "./molecule.ts";
+import { computeProperties, type Properties } from "./properties/index.ts";
+import { type Reference, SCF_DEFAULTS, type ScfEvent, type ScfIteration, type ScfOptions } from "./scf/scf.ts";
+import { solveScf, type StabilityOptions } from "./scf/solve.ts";
+import type { StabilityRecord } from "./scf/stability.ts";
+import { ENGINE_NAME, ENGINE_VERSION, NUMERICS_VERSION } from "./version.ts";
+
+export interface RunInput {
+  atoms: Atom[];
+  charge: number;
+  multiplicity: number;
+  basis: BasisAssignment;
+  harmonics?: Harmonics;
+  reference: Reference;
+  scf?: ScfOptions;
+  stability?: StabilityOptions;
+  /** origin of the dipole moment (bohr); default the centre of mass */
+  dipoleOrigin?: [number, number, number];
+}
+
+export type RunEvent =
+  | ScfEvent
+  | { type: "stage"; stage: "basis" | "integrals" | "scf" | "properties"; state: "start" | "end"; seconds?: number };
+
+export interface RunResult {
+  engine: { name: string; version: string; numerics: number };
+  status: "ok" | "not-converged";
+  molecule: {
+    formula: string;
+    atoms: [string, number, number, number][];
+    units: "bohr";
+    charge: number;
+    multiplicity: number;
+    electrons: number;
+    alpha: number;
+    beta: number;
+    nuclear_repulsion: number;
+  };
+  basis: {
+    sets: Record<string, string>;
+    functions: number;
+    shells: number;
+    harmonics: Harmonics;
+    orthogonalization: { kind: string; dropped: number; min_overlap_eigenvalue: number; threshold: number; independent_functions: number };
+    references: Record<string, string>;
+    function_labels: string[];
+  };
+  scf: {
+    reference: Reference;
+    converged: boolean;
+    energy: number;
+    iterations: ScfIteration[];
+    settings: Required<Omit<ScfOptions, "jk">>;
+    orbitals: { alpha: { energies: number[]; occupations: number[] }; beta: { energies: number[]; occupations: number[] } | null };
+    stability: StabilityRecord;
+    integrals: { mode: string; stored_bytes: number; quartets: number };
+  };
+  properties: Properties;
+  wall_seconds: Record<string, number>;
+}
+
+export function run(input: RunInput, onEvent?: (e: RunEvent) => void): RunResult {
+  const t0 = performance.now();
+  const times: Record<string, number> = {};
+  const mol = { atoms: input.atoms, charge: input.charge, multiplicity: input.multiplicity };
+  validateMolecule(mol, { reference: input.reference });
+  const electrons = electronCount(mol);
+  const nalpha = (electrons + input.multiplicity - 1) / 2;
+  const nbeta = (electrons - input.multiplicity + 1) / 2;
+
+  const stage = <T>(name: "basis" | "integrals" | "scf" | "properties", f: () => T): T => {
+    onEvent?.({ type: "stage", stage: name, state: "start" });
+    const s = performance.now();
+    const r = f();
+    times[name] = (performance.now() - s) / 1000;
+    onEvent?.({ type: "stage", stage: name, state: "end", seconds: times[name] });
+    return r;
+  };
+  const built = stage("basis", () => buildBasis(input.atoms.map((a) => ({ symbol: a.symbol, xyz: a.xyz })), input.basis, input.harmonics ?? "auto"));
+  const basis = prepareShells(built.shells);
+  const nuclei: PointCharge[] = input.atoms.map((a) => ({ charge: a.z, x: a.xyz[0], y: a.xyz[1], z: a.xyz[2] }));
+  const enuc = nuclearRepulsion(mol);
+  const settings = { ...SCF_DEFAULTS, ...input.scf };
+  const { scf, stability } = stage("scf", () =>
+    solveScf({ basis, nuclei, nuclearRepulsion: enuc, nalpha, nbeta, reference: input.reference }, input.scf, input.stability,
+      onEvent ? (e) => onEvent(e) : undefined));
+  times.integrals = scf.jk.integralSeconds;
+  const properties = stage("properties", () => computeProperties(scf, {
+    basisShells: basis.shells, basis, atoms: input.atoms, nuclearRepulsion: enuc, charge: input.charge,
+    ...(input.dipoleOrigin ? { origin: input.dipoleOrigin } : {}),
+  }));
+  times.total = (performance.now() - t0) / 1000;
+  const { jk: _jk, ...plainSettings } = settings;
+  void _jk;
+  return {
+    engine: { name: ENGINE_NAME, version: ENGINE_VERSION, numerics: NUMERICS_VERSION },
+    status: scf.converged ? "ok" : "not-converged",
+    molecule: {
+      formula: hillFormula(mol),
+      atoms: input.atoms.map((a) => [a.symbol, a.xyz[0], a.xyz[1], a.xyz[2]]),
+      units: "bohr",
+      charge: input.charge,
+      multiplicity: input.multiplicity,
+      electrons,
+      alpha: nalpha,
+      beta: nbeta,
+      nuclear_repulsion: enuc,
+    },
+    basis: {
+      sets: built.setNames,
+      functions: basis.nbf,
+      shells: basis.shells.length,
+      harmonics: built.harmonics,
+      orthogonalization: {
+        kind: scf.orthogonalization.kind, dropped: scf.orthogonalization.dropped,
+        min_overlap_eigenvalue: scf.orthogonalization.minEigenvalue, threshold: scf.orthogonalization.threshold,
+        independent_functions: scf.orthogonalization.nmo,
+      },
+      references: built.references,
+      function_labels: built.functionLabels,
+    },
+    scf: {
+      reference: scf.reference,
+      converged: scf.converged,
+      energy: scf.energy,
+      iterations: scf.iterations,
+      settings: plainSettings as Required<Omit<ScfOptions, "jk">>,
+      orbitals: scf.orbitals,
+      stability,
+      integrals: { mode: scf.jk.mode, stored_bytes: scf.jk.storedBytes, quartets: scf.jk.quartets },
+    },
+    properties,
+    wall_seconds: times,
+  };
+}
