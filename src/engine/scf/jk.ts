@@ -51,13 +51,14 @@ export class JkBuilder {
   /** surviving quartets as pair indices (bra, ket) */
   private qBra: Int32Array;
   private qKet: Int32Array;
+  /** per quartet the four cross pairs (ac, ad, bc, bd) whose density exchange touches */
+  private qCross: Int32Array;
   /** in-core: chunk index and offset of each quartet's block */
   private qChunk: Int32Array | null = null;
   private qOff: Int32Array | null = null;
   private chunks: Float64Array[] = [];
   /** per shell pair (engine pair index) the largest |D| element, refreshed per build */
   private pairDmax: Float64Array;
-  private shellPairIndex: (i: number, j: number) => number;
 
   constructor(basis: PreparedBasis, options: JkOptions = {}) {
     this.nbf = basis.nbf;
@@ -80,8 +81,16 @@ export class JkBuilder {
     }
     this.qBra = Int32Array.from(bra);
     this.qKet = Int32Array.from(ket);
+    this.qCross = new Int32Array(4 * bra.length);
+    for (let q = 0; q < bra.length; q++) {
+      const P = pairs[bra[q]], Q = pairs[ket[q]];
+      const e = this.engine;
+      this.qCross[4 * q] = e.pairIndex(P.ia, Q.ia);
+      this.qCross[4 * q + 1] = e.pairIndex(P.ia, Q.ib);
+      this.qCross[4 * q + 2] = e.pairIndex(P.ib, Q.ia);
+      this.qCross[4 * q + 3] = e.pairIndex(P.ib, Q.ib);
+    }
     this.pairDmax = new Float64Array(pairs.length);
-    this.shellPairIndex = (i, j) => this.engine.pairIndex(i, j);
     const budget = options.memoryBytes ?? 4 * 1024 ** 3;
     const mode = options.mode ?? (doubles * 8 <= budget ? "in-core" : "direct");
     this.stats = { mode, storedBytes: 0, quartets: bra.length, lastBuildQuartets: 0, integralSeconds: 0 };
@@ -135,17 +144,16 @@ export class JkBuilder {
     this.updatePairDmax(densities, Dt);
     const pairs = this.engine.pairs;
     const pd = this.pairDmax;
-    const pidx = this.shellPairIndex;
+    const cross = this.qCross;
     const th = this.threshold;
     let built = 0;
     for (let q = 0; q < this.qBra.length; q++) {
       const P = pairs[this.qBra[q]];
       const Q = pairs[this.qKet[q]];
       // density screening: the largest density element any of J or K would multiply
-      const ia = P.ia, ib = P.ib, ic = Q.ia, id = Q.ib;
       const dmax = Math.max(
         pd[this.qBra[q]], pd[this.qKet[q]],
-        pd[pidx(ia, ic)], pd[pidx(ia, id)], pd[pidx(ib, ic)], pd[pidx(ib, id)],
+        pd[cross[4 * q]], pd[cross[4 * q + 1]], pd[cross[4 * q + 2]], pd[cross[4 * q + 3]],
       );
       if (P.schwarz * Q.schwarz * dmax < th) continue;
       built++;
