@@ -22,7 +22,8 @@ export interface Orthogonalizer {
 export function orthogonalizer(S: Float64Array, n: number, threshold = 1e-7): Orthogonalizer {
   const { values, vectors } = symmetricEigen(S, n);
   const min = values[0];
-  if (!(min > 0) && !(values[n - 1] > threshold)) throw new Error("overlap matrix is not positive: the basis is broken");
+  // a clearly negative eigenvalue means broken integrals, not a near-dependent basis
+  if (!(values[n - 1] > 0) || min < -1e-8 * values[n - 1]) throw new Error(`overlap matrix is not positive semi-definite (lowest eigenvalue ${min})`);
   if (min >= threshold) {
     const X = new Float64Array(n * n);
     for (let k = 0; k < n; k++) {

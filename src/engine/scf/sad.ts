@@ -15,6 +15,7 @@ import type { PreparedBasis, PreparedShell } from "../integrals/shells.ts";
 import { JkBuilder } from "./jk.ts";
 import { orthogonalizer } from "./orthogonalize.ts";
 
+/** Atomic densities by element and basis; bounded by the distinct (element, basis) pairs seen. */
 const cache = new Map<string, Float64Array>();
 
 function signature(z: number, shells: PreparedShell[]): string {
@@ -72,6 +73,7 @@ export function atomicDensity(z: number, shells: PreparedShell[]): Float64Array 
   };
   let { eps, C } = diag(H);
   let D = new Float64Array(n * n);
+  // a guess needs no tight convergence: after 100 damped steps the density is used as it is
   for (let it = 0; it < 100; it++) {
     const occ = averagedOccupations(eps, z);
     const Dn = new Float64Array(n * n);

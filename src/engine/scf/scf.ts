@@ -154,6 +154,8 @@ export function runScf(
   };
   const toOrth = (F: Float64Array) => matmul(Xt, matmul(F, X, n, n, m), m, n, m);
 
+  if (start && start.C.some((c) => c.length !== n * m))
+    throw new Error(`starting orbitals must be ${n} × ${m} (basis functions × independent functions)`);
   let state: State;
   if (start) state = { C: start.C, eps: [new Float64Array(m), new Float64Array(m)] };
   else if (o.guess === "core" || nalpha + nbeta === 0) {
@@ -196,9 +198,11 @@ export function runScf(
   // the orbitals the current density was made from (returned when not converged, so that
   // C, D and the energy belong together)
   let Cd: [Float64Array, Float64Array] = state.C;
+  let epsd: [Float64Array, Float64Array] = state.eps;
   for (let it = 1; it <= o.maxIterations; it++) {
     const t0 = performance.now();
     Cd = state.C;
+    epsd = state.eps;
     let Da = density(state.C[0], nalpha);
     let Db = reference === "rhf" ? Da : density(state.C[1], nbeta);
     if (o.damping > 0 && Dprev) {
@@ -244,7 +248,9 @@ export function runScf(
     energy = 0.5 * e + problem.nuclearRepulsion;
 
     // orbital gradient in the orthonormal basis
-    const err = reference === "rohf" ? null : gradient(F, D, S, X, Xt, n, m, unrestricted);
+    // RHF: the gradient of the total density 2Dα (DIIS is scale invariant; the report is not)
+    const err = reference === "rohf" ? null
+      : gradient(F, unrestricted ? D : [Da.map((x) => 2 * x), Db], S, X, Xt, n, m, unrestricted);
     let newFocks: Float64Array[];
     let rohfErr: Float64Array | null = null;
     if (reference === "rohf") {
@@ -256,7 +262,7 @@ export function runScf(
     let diisError = 0;
     for (let k = 0; k < errVec.length; k++) diisError = Math.max(diisError, Math.abs(errVec[k]));
 
-    const dE = it === 1 ? energy : energy - Eprev;
+    const dE = it === 1 ? NaN : energy - Eprev; // undefined at the first iteration (null in JSON)
     let drms = 0;
     if (Dprev) {
       for (const [x, y] of [[Da, Dprev[0]], [Db, Dprev[1]]] as const) {
@@ -318,6 +324,11 @@ export function runScf(
     finalC = [sa.C, sb.C];
     finalEps = [sa.eps, sb.eps];
   }
+  if (!converged) {
+    // report the orbitals the final density was made from, with their own energies
+    finalC = Cd;
+    finalEps = epsd;
+  }
   const occ = (count: number, w: number) => Array.from({ length: m }, (_, k) => (k < count ? w : 0));
   const orbitals =
     reference === "rhf"
@@ -329,7 +340,7 @@ export function runScf(
     reference, converged, iterations, energy, nalpha, nbeta, orbitals,
     orthogonalization: { kind: orth.kind, dropped: orth.dropped, minEigenvalue: orth.minEigenvalue, threshold: orth.threshold, nmo: m },
     jk: jk.stats,
-    matrices: { S, T, V, H, C: converged ? finalC : Cd, D, F, J, K, orth, jk },
+    matrices: { S, T, V, H, C: finalC, D, F, J, K, orth, jk },
   };
 }
 
