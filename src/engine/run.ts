@@ -8,6 +8,9 @@
  * with status "not-converged".
  */
 import { type BasisAssignment, buildBasis, type Harmonics } from "./basis/index.ts";
+import { type Mp2Energies, mp2Energy } from "./correlation/mp2.ts";
+import { coreOrbitals } from "./elements.ts";
+import { InputError } from "./errors.ts";
 import type { PointCharge } from "./integrals/one-electron.ts";
 import { prepareShells } from "./integrals/shells.ts";
 import { type Atom, electronCount, hillFormula, nuclearRepulsion, validateMolecule } from "./molecule.ts";
@@ -24,6 +27,10 @@ export interface RunInput {
   basis: BasisAssignment;
   harmonics?: Harmonics;
   reference: Reference;
+  /** correlation on top of the SCF; default none */
+  correlation?: "none" | "mp2" | "scs-mp2";
+  /** freeze the noble-gas core of each atom in MP2; default true */
+  frozenCore?: boolean;
   scf?: ScfOptions;
   stability?: StabilityOptions;
   /** origin of the dipole moment (bohr); default the centre of mass */
@@ -32,7 +39,10 @@ export interface RunInput {
 
 export type RunEvent =
   | ScfEvent
-  | { type: "stage"; stage: "basis" | "integrals" | "scf" | "properties"; state: "start" | "end"; seconds?: number };
+  | { type: "stage"; stage: Stage; state: "start" | "end"; seconds?: number }
+  | { type: "mp2-batch"; done: number; total: number };
+
+type Stage = "basis" | "integrals" | "scf" | "properties" | "mp2";
 
 export interface RunResult {
   engine: { name: string; version: string; numerics: number };
@@ -68,6 +78,8 @@ export interface RunResult {
     integrals: { mode: string; stored_bytes: number; quartets: number };
   };
   properties: Properties;
+  /** null when no correlation was asked for */
+  mp2: (Mp2Energies & { variant: "mp2" | "scs-mp2"; valid: true }) | { variant: "mp2" | "scs-mp2"; valid: false; reason: string } | null;
   wall_seconds: Record<string, number>;
 }
 
@@ -76,11 +88,16 @@ export function run(input: RunInput, onEvent?: (e: RunEvent) => void): RunResult
   const times: Record<string, number> = {};
   const mol = { atoms: input.atoms, charge: input.charge, multiplicity: input.multiplicity };
   validateMolecule(mol, { reference: input.reference });
+  const correlation = input.correlation ?? "none";
+  if (correlation !== "none" && input.reference === "rohf")
+    throw new InputError("mp2-reference-unsupported", "MP2 from an ROHF reference is not supported", {
+      hint: "use reference rhf (RMP2) for closed shells or uhf (UMP2) for open shells",
+    });
   const electrons = electronCount(mol);
   const nalpha = (electrons + input.multiplicity - 1) / 2;
   const nbeta = (electrons - input.multiplicity + 1) / 2;
 
-  const stage = <T>(name: "basis" | "integrals" | "scf" | "properties", f: () => T): T => {
+  const stage = <T>(name: Stage, f: () => T): T => {
     onEvent?.({ type: "stage", stage: name, state: "start" });
     const s = performance.now();
     const r = f();
@@ -101,6 +118,16 @@ export function run(input: RunInput, onEvent?: (e: RunEvent) => void): RunResult
     basisShells: basis.shells, basis, atoms: input.atoms, nuclearRepulsion: enuc, charge: input.charge,
     ...(input.dipoleOrigin ? { origin: input.dipoleOrigin } : {}),
   }));
+  let mp2: RunResult["mp2"] = null;
+  if (correlation !== "none") {
+    if (!scf.converged) mp2 = { variant: correlation, valid: false, reason: "the SCF reference did not converge; no MP2 energy is reported" };
+    else {
+      const frozen = input.frozenCore === false ? 0 : input.atoms.reduce((t, a) => t + coreOrbitals(a.z), 0);
+      if (frozen > nbeta) throw new InputError("frozen-core-too-large", `the frozen core (${frozen} orbitals) exceeds the ${nbeta} occupied β orbitals`, { hint: "set frozen_core: false" });
+      const e = stage("mp2", () => mp2Energy(scf, { frozen, onBatch: (done, total) => onEvent?.({ type: "mp2-batch", done, total }) }));
+      mp2 = { ...e, variant: correlation, valid: true };
+    }
+  }
   times.total = (performance.now() - t0) / 1000;
   const { jk: _jk, ...plainSettings } = settings;
   void _jk;
@@ -142,6 +169,7 @@ export function run(input: RunInput, onEvent?: (e: RunEvent) => void): RunResult
       integrals: { mode: scf.jk.mode, stored_bytes: scf.jk.storedBytes, quartets: scf.jk.quartets },
     },
     properties,
+    mp2,
     wall_seconds: times,
   };
 }

@@ -4,13 +4,24 @@
  */
 import { EigenvalueDecomposition, Matrix } from "ml-matrix";
 
-/** C = A·B with A (n × k), B (k × m). */
+/**
+ * C = A·B with A (n × k), B (k × m). Four rows of B per pass over a row of C, so each load and
+ * store of C serves four multiply-adds.
+ */
 export function matmul(A: Float64Array, B: Float64Array, n: number, k: number, m: number, C = new Float64Array(n * m)): Float64Array {
-  C.fill(0);
+  C.fill(0, 0, n * m);
+  const k4 = k - (k % 4);
   for (let i = 0; i < n; i++) {
     const ci = i * m;
-    for (let p = 0; p < k; p++) {
-      const a = A[i * k + p];
+    const ai = i * k;
+    for (let p = 0; p < k4; p += 4) {
+      const a0 = A[ai + p], a1 = A[ai + p + 1], a2 = A[ai + p + 2], a3 = A[ai + p + 3];
+      if (a0 === 0 && a1 === 0 && a2 === 0 && a3 === 0) continue;
+      const b0 = p * m, b1 = b0 + m, b2 = b1 + m, b3 = b2 + m;
+      for (let j = 0; j < m; j++) C[ci + j] += a0 * B[b0 + j] + a1 * B[b1 + j] + a2 * B[b2 + j] + a3 * B[b3 + j];
+    }
+    for (let p = k4; p < k; p++) {
+      const a = A[ai + p];
       if (a === 0) continue;
       const bp = p * m;
       for (let j = 0; j < m; j++) C[ci + j] += a * B[bp + j];

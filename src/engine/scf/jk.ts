@@ -131,6 +131,20 @@ export class JkBuilder {
   }
 
   /**
+   * Every surviving unique quartet's block, from the store or recomputed (direct): visit(P, Q,
+   * block, offset) with the block's elements at block[offset …] in EriEngine.compute layout.
+   */
+  forEachBlock(visit: (P: ShellPair, Q: ShellPair, blk: Float64Array, off: number) => void): void {
+    const pairs = this.engine.pairs;
+    for (let q = 0; q < this.qBra.length; q++) {
+      const P = pairs[this.qBra[q]];
+      const Q = pairs[this.qKet[q]];
+      if (this.qChunk !== null) visit(P, Q, this.chunks[this.qChunk[q]], this.qOff![q]);
+      else visit(P, Q, this.engine.compute(P, Q), 0);
+    }
+  }
+
+  /**
    * J (of the sum of the densities) and K (of each density) for symmetric densities.
    * `wantK` false skips exchange. Results are new nbf × nbf arrays.
    */
