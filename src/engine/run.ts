@@ -9,6 +9,7 @@
  */
 import { type BasisAssignment, buildBasis, type Harmonics } from "./basis/index.ts";
 import { type Mp2Energies, mp2Energy } from "./correlation/mp2.ts";
+import { riMp2Energy } from "./correlation/ri-mp2.ts";
 import { coreOrbitals } from "./elements.ts";
 import { InputError } from "./errors.ts";
 import type { PointCharge } from "./integrals/one-electron.ts";
@@ -31,6 +32,10 @@ export interface RunInput {
   correlation?: "none" | "mp2" | "scs-mp2";
   /** freeze the noble-gas core of each atom in MP2; default true */
   frozenCore?: boolean;
+  /** exact MP2 integrals, or density fitting (RI-MP2); default exact */
+  mp2Integrals?: "exact" | "density-fitting";
+  /** fitting basis for RI-MP2; default the set made for the orbital basis (FITTING_DEFAULTS) */
+  fittingBasis?: string;
   scf?: ScfOptions;
   stability?: StabilityOptions;
   /** origin of the dipole moment (bohr); default the centre of mass */
@@ -43,6 +48,14 @@ export type RunEvent =
   | { type: "mp2-batch"; done: number; total: number };
 
 type Stage = "basis" | "integrals" | "scf" | "properties" | "mp2";
+
+/** The fitting set published for each orbital basis (Weigend, Köhn, Hättig 2002; Weigend et al. 1998). */
+export const FITTING_DEFAULTS: Record<string, string> = {
+  "cc-pVDZ": "cc-pVDZ-RIFIT",
+  "cc-pVTZ": "cc-pVTZ-RIFIT",
+  "def2-SVP": "def2-SVP-RIFIT",
+  "def2-TZVP": "def2-TZVP-RIFIT",
+};
 
 export interface RunResult {
   engine: { name: string; version: string; numerics: number };
@@ -79,7 +92,13 @@ export interface RunResult {
   };
   properties: Properties;
   /** null when no correlation was asked for */
-  mp2: (Mp2Energies & { variant: "mp2" | "scs-mp2"; valid: true }) | { variant: "mp2" | "scs-mp2"; valid: false; reason: string } | null;
+  mp2:
+    | (Omit<Mp2Energies, "transform"> & {
+        variant: "mp2" | "scs-mp2"; valid: true; integrals: "exact" | "density-fitting";
+        fitting_basis: string | null; fitting_functions: number | null; peak_bytes: number;
+      })
+    | { variant: "mp2" | "scs-mp2"; valid: false; reason: string }
+    | null;
   wall_seconds: Record<string, number>;
 }
 
@@ -124,8 +143,22 @@ export function run(input: RunInput, onEvent?: (e: RunEvent) => void): RunResult
     else {
       const frozen = input.frozenCore === false ? 0 : input.atoms.reduce((t, a) => t + coreOrbitals(a.z), 0);
       if (frozen > nbeta) throw new InputError("frozen-core-too-large", `the frozen core (${frozen} orbitals) exceeds the ${nbeta} occupied β orbitals`, { hint: "set frozen_core: false" });
-      const e = stage("mp2", () => mp2Energy(scf, { frozen, onBatch: (done, total) => onEvent?.({ type: "mp2-batch", done, total }) }));
-      mp2 = { ...e, variant: correlation, valid: true };
+      if (input.mp2Integrals === "density-fitting") {
+        const names = Object.values(built.setNames);
+        const fitName = input.fittingBasis ?? (new Set(names).size === 1 ? FITTING_DEFAULTS[names[0]] : undefined);
+        if (!fitName)
+          throw new InputError("fitting-basis-needed", `no default fitting basis for ${[...new Set(names)].join(" + ")}`, {
+            hint: `name one (bundled: ${Object.values(FITTING_DEFAULTS).join(", ")})`,
+          });
+        const fit = prepareShells(buildBasis(input.atoms.map((a) => ({ symbol: a.symbol, xyz: a.xyz })), fitName, "auto").shells);
+        const e = stage("mp2", () => riMp2Energy(scf, { frozen, fitting: fit }));
+        mp2 = { ...e, variant: correlation, valid: true, integrals: "density-fitting", fitting_basis: fitName, fitting_functions: e.fitting_functions, peak_bytes: e.peak_bytes };
+      } else {
+        const e = stage("mp2", () => mp2Energy(scf, { frozen, onBatch: (done, total) => onEvent?.({ type: "mp2-batch", done, total }) }));
+        const { transform, ...rest } = e;
+        mp2 = { ...rest, variant: correlation, valid: true, integrals: "exact", fitting_basis: null, fitting_functions: null,
+          peak_bytes: Math.max(0, ...transform.map((t) => t.peakBytes)) };
+      }
     }
   }
   times.total = (performance.now() - t0) / 1000;

@@ -99,13 +99,18 @@ export class EriEngine {
     }
   }
 
-  /** `mergeShells: false` keeps sp halves apart (for tests: the merged path must agree). */
-  constructor(basis: PreparedBasis, options: { mergeShells?: boolean } = {}) {
+  /**
+   * `mergeShells: false` keeps sp halves apart (for tests: the merged path must agree).
+   * `lazyPairs: true` makes shell pairs only when pair(i, j) first asks for them (for callers
+   * that need a few of many possible pairs); `pairs` is then sparse.
+   */
+  constructor(basis: PreparedBasis, options: { mergeShells?: boolean; lazyPairs?: boolean } = {}) {
     this.basis = basis;
     const sh = options.mergeShells === false ? basis.shells.slice() : mergeSharedExponents(basis.shells);
     this.shells = sh;
     const pairs: ShellPair[] = [];
-    for (let i = 0; i < sh.length; i++) for (let j = 0; j <= i; j++) pairs.push(makeShellPair(sh[i], i, sh[j], j));
+    if (!options.lazyPairs)
+      for (let i = 0; i < sh.length; i++) for (let j = 0; j <= i; j++) pairs.push(makeShellPair(sh[i], i, sh[j], j));
     this.pairs = pairs;
     const lmax = basis.maxL;
     let maxRows = 1;
@@ -125,6 +130,17 @@ export class EriEngine {
     this.out = new Float64Array(maxFunc ** 4);
     this.transforms = [];
     for (let l = 0; l <= lmax; l++) this.transforms.push([sparseTransform(l, false), sparseTransform(l, true)]);
+  }
+
+  /** The pair of shells i and j (made on first use with lazyPairs). */
+  pair(i: number, j: number): ShellPair {
+    const k = this.pairIndex(i, j);
+    let p = this.pairs[k];
+    if (p === undefined) {
+      p = i >= j ? makeShellPair(this.shells[i], i, this.shells[j], j) : makeShellPair(this.shells[j], j, this.shells[i], i);
+      this.pairs[k] = p;
+    }
+    return p;
   }
 
   pairIndex(i: number, j: number): number {

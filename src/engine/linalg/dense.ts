@@ -106,3 +106,38 @@ export function rmsDiff(A: Float64Array, B: Float64Array): number {
   for (let i = 0; i < A.length; i++) s += (A[i] - B[i]) ** 2;
   return Math.sqrt(s / A.length);
 }
+
+/**
+ * C = A·Bᵀ with A (n × k) and B (m × k): dot products of contiguous rows, computed 2 × 2 at a
+ * time so every load serves two multiply-adds and no store happens inside the k loop.
+ */
+export function matmulABt(A: Float64Array, aOff: number, B: Float64Array, bOff: number, n: number, k: number, m: number, C: Float64Array): Float64Array {
+  const n2 = n - (n % 2), m2 = m - (m % 2);
+  for (let i = 0; i < n2; i += 2) {
+    const r0 = aOff + i * k, r1 = r0 + k;
+    for (let j = 0; j < m2; j += 2) {
+      const q0 = bOff + j * k, q1 = q0 + k;
+      let s00 = 0, s01 = 0, s10 = 0, s11 = 0;
+      for (let p = 0; p < k; p++) {
+        const x0 = A[r0 + p], x1 = A[r1 + p], y0 = B[q0 + p], y1 = B[q1 + p];
+        s00 += x0 * y0;
+        s01 += x0 * y1;
+        s10 += x1 * y0;
+        s11 += x1 * y1;
+      }
+      C[i * m + j] = s00;
+      C[i * m + j + 1] = s01;
+      C[(i + 1) * m + j] = s10;
+      C[(i + 1) * m + j + 1] = s11;
+    }
+  }
+  // leftover row and column
+  const dot = (r: number, q: number) => {
+    let s = 0;
+    for (let p = 0; p < k; p++) s += A[r + p] * B[q + p];
+    return s;
+  };
+  if (m2 < m) for (let i = 0; i < n; i++) C[i * m + m - 1] = dot(aOff + i * k, bOff + (m - 1) * k);
+  if (n2 < n) for (let j = 0; j < m2; j++) C[(n - 1) * m + j] = dot(aOff + (n - 1) * k, bOff + j * k);
+  return C;
+}
