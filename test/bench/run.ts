@@ -15,6 +15,9 @@ import { sweepUniqueQuartets, type SweepStats } from "../../src/engine/integrals
 import { parseXyz } from "../../src/engine/molecule.ts";
 import { nuclearRepulsion } from "../../src/engine/molecule.ts";
 import { runScf } from "../../src/engine/scf/scf.ts";
+import { mp2Energy } from "../../src/engine/correlation/mp2.ts";
+import { riMp2Energy } from "../../src/engine/correlation/ri-mp2.ts";
+import { coreOrbitals } from "../../src/engine/elements.ts";
 import { findNativeRef, geometryPath, REPO_ROOT, runNativeEri, runNativeScf, type NativeEriBench, type NativeScf } from "./native.ts";
 
 interface Case {
@@ -34,6 +37,13 @@ const ERI_CASES: Case[] = [
 ];
 
 const SCF_CASES: Case[] = ERI_CASES;
+const MP2_CASES: (Case & { fitting: string })[] = [
+  { molecule: "water", basis: "cc-pVDZ", fitting: "cc-pVDZ-RIFIT" },
+  { molecule: "water", basis: "cc-pVTZ", fitting: "cc-pVTZ-RIFIT" },
+  { molecule: "benzene", basis: "cc-pVDZ", fitting: "cc-pVDZ-RIFIT" },
+];
+/** Targets of the MP2 issue: exact step ≤ 5×, RI step ≤ 2× the native MP2 step. */
+const MP2_TARGETS = { exact: 5, ri: 2 };
 
 /** Targets of the SCF issue, as ratios ours/native (whole RHF run). */
 const SCF_TARGETS: Record<string, number> = { "benzene cc-pVDZ": 1.0, "alkane_C8H18 6-31G*": 1.0 };
@@ -176,6 +186,53 @@ function main() {
       `${fmt(nat?.seconds.total)} | ${fmt(ratio, 2)} | ${target ? `≤ ${target.toFixed(1)}` : ""} |`);
     console.log(scfRows[scfRows.length - 1]);
   }
+  const mp2Rows: string[] = [];
+  const mp2Results: unknown[] = [];
+  for (const c of opt.scfOnly ? [] : MP2_CASES) {
+    const name = `${c.molecule} ${c.basis}`;
+    if (opt.only && !name.includes(opt.only)) continue;
+    const geo = loadGeometry(c.molecule);
+    const t0 = performance.now();
+    const basis = loadBasis(c.molecule, c.basis);
+    const electrons = geo.atoms.reduce((s, a) => s + a.z, 0);
+    const scf = runScf({
+      basis, nuclei: geo.atoms.map((a) => ({ charge: a.z, x: a.xyz[0], y: a.xyz[1], z: a.xyz[2] })),
+      nuclearRepulsion: nuclearRepulsion({ atoms: geo.atoms }), nalpha: electrons / 2, nbeta: electrons / 2, reference: "rhf",
+    });
+    const scfSeconds = (performance.now() - t0) / 1000;
+    const frozen = geo.atoms.reduce((s, a) => s + coreOrbitals(a.z), 0);
+    const fit = loadBasis(c.molecule, c.fitting);
+    const ex = best(opt.repeat, () => {
+      const t = performance.now();
+      const e = mp2Energy(scf, { frozen });
+      return { seconds: (performance.now() - t) / 1000, e, peak: Math.max(...e.transform.map((x) => x.peakBytes)) };
+    });
+    const ri = best(opt.repeat, () => {
+      const t = performance.now();
+      const e = riMp2Energy(scf, { frozen, fitting: fit });
+      return { seconds: (performance.now() - t) / 1000, e, peak: e.peak_bytes };
+    });
+    let nat: NativeScf | undefined;
+    if (native) {
+      for (let k = 0; k < opt.repeat; k++) {
+        const x = runNativeScf(geometryPath(c.molecule), c.basis, { ref: native, mp2: "fc" });
+        if (!nat || x.seconds.mp2 < nat.seconds.mp2) nat = x;
+      }
+    }
+    const natMp2 = nat?.seconds.mp2;
+    const natCorr = nat?.mp2.frozenCore?.eCorr;
+    mp2Results.push({ case: name, nbf: basis.nbf, fitting: c.fitting, scfSeconds,
+      exact: { seconds: ex.seconds, correlation: ex.e.correlation, peakBytes: ex.peak },
+      ri: { seconds: ri.seconds, correlation: ri.e.correlation, error: ri.e.correlation - ex.e.correlation, peakBytes: ri.peak, fittingFunctions: ri.e.fitting_functions },
+      native: nat ? { mp2Seconds: natMp2, totalSeconds: nat.seconds.total, correlation: natCorr } : null,
+      ratios: natMp2 ? { exact: ex.seconds / natMp2, ri: ri.seconds / natMp2, wholeRi: (scfSeconds + ri.seconds) / nat!.seconds.total } : null,
+      targets: MP2_TARGETS });
+    mp2Rows.push(`| ${name} | ${basis.nbf} | ${ex.e.correlation.toFixed(10)} | ${fmt(ex.seconds)} | ${(ex.peak / 2 ** 20).toFixed(1)} | ` +
+      `${ri.e.fitting_functions} | ${(ri.e.correlation - ex.e.correlation).toExponential(2)} | ${fmt(ri.seconds)} | ${(ri.peak / 2 ** 20).toFixed(1)} | ` +
+      `${natCorr !== undefined ? natCorr.toFixed(10) : "–"} | ${fmt(natMp2)} | ${natMp2 ? fmt(ex.seconds / natMp2, 2) : "–"} | ${natMp2 ? fmt(ri.seconds / natMp2, 2) : "–"} | ` +
+      `${nat ? fmt(scfSeconds + ri.seconds, 2) + " / " + fmt(nat.seconds.total, 2) : "–"} |`);
+    console.log(mp2Rows[mp2Rows.length - 1]);
+  }
   const header = [
     "| case | nbf | unique shell quartets | fieldbook s (no screening) | fieldbook s (Schwarz 1e-12) | M integrals/s | native s | native s (Schwarz) | ratio | ratio (Schwarz) | target |",
     "|---|---:|---:|---:|---:|---:|---:|---:|---:|---:|---|",
@@ -184,7 +241,12 @@ function main() {
     "| case | nbf | E(RHF) fieldbook | iterations | ERI s | total s | ERI store MiB | peak RSS MiB | E(RHF) native | native iterations | native total s | ratio | target |",
     "|---|---:|---:|---:|---:|---:|---:|---:|---:|---:|---:|---:|---|",
   ];
-  const table = ["## All unique ERIs", "", ...header, ...rows, "", "## RHF (SAD guess, DIIS, converged to 1e-10 Eh)", "", ...scfHeader, ...scfRows].join("\n");
+  const mp2Header = [
+    "| case | nbf | E_corr exact (fc) | exact s | exact peak MiB | fitting functions | RI − exact | RI s | RI peak MiB | native E_corr | native MP2 s | exact ratio (≤ 5) | RI ratio (≤ 2) | whole RI-MP2 s / native whole s |",
+    "|---|---:|---:|---:|---:|---:|---:|---:|---:|---:|---:|---:|---:|---|",
+  ];
+  const table = ["## All unique ERIs", "", ...header, ...rows, "", "## RHF (SAD guess, DIIS, converged to 1e-10 Eh)", "", ...scfHeader, ...scfRows,
+    "", "## MP2 step (frozen core), exact and density-fitted", "", ...mp2Header, ...mp2Rows].join("\n");
   console.log("\n" + table);
   mkdirSync(join(opt.out, ".."), { recursive: true });
   writeFileSync(opt.out, JSON.stringify({
@@ -192,6 +254,7 @@ function main() {
     note: "fieldbook runs single-threaded in one process; native_ref one process per run; times are the best of --repeat",
     eri: results,
     rhf: scfResults,
+    mp2: mp2Results,
   }, null, 2));
   writeFileSync(opt.out.replace(/\.json$/, ".md"), table + "\n");
   console.log(`\nwrote ${opt.out}`);
