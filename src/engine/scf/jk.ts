@@ -178,7 +178,8 @@ export class JkBuilder {
         off = this.qOff![q];
       } else blk = this.engine.compute(P, Q);
       if (nd > 2) throw new Error("J/K builds take one or two densities");
-      this.digest(P, Q, blk, off, densities, Dt, J, K, nd, wantK);
+      if (nd === 1 && wantK) digestOne(P, Q, blk, off, this.nbf, densities[0], J, K[0]);
+      else this.digest(P, Q, blk, off, densities, Dt, J, K, nd, wantK);
     }
     this.stats.lastBuildQuartets = built;
     finishSymmetric(J, n);
@@ -278,6 +279,47 @@ export class JkBuilder {
         }
         J[ia + b0 + b] += s2 * jab;
       }
+    }
+  }
+}
+
+/** digest() for one density with exchange (RHF), as a separate small function the JIT can keep tight. */
+function digestOne(P: ShellPair, Q: ShellPair, blk: Float64Array, off: number, n: number, D1: Float64Array, J: Float64Array, K1: Float64Array): void {
+  const A = P.a, B = P.b, C = Q.a, D = Q.b;
+  const na = A.nfunc, nb = B.nfunc, nc = C.nfunc, ndd = D.nfunc;
+  const a0 = A.offset, b0 = B.offset, c0 = C.offset, d0 = D.offset;
+  let s = 1;
+  if (P.ia === P.ib) s *= 0.5;
+  if (Q.ia === Q.ib) s *= 0.5;
+  if (P === Q) s *= 0.5;
+  const s2 = 2 * s;
+  let k = off;
+  for (let a = 0; a < na; a++) {
+    const ia = (a0 + a) * n;
+    const iad = ia + d0;
+    for (let b = 0; b < nb; b++) {
+      const ib = (b0 + b) * n;
+      const ibd = ib + d0;
+      const dab = s2 * D1[ia + b0 + b];
+      let jab = 0;
+      for (let c = 0; c < nc; c++) {
+        const ic = (c0 + c) * n + d0;
+        const dbc = s * D1[ib + c0 + c], dac = s * D1[ia + c0 + c];
+        let kac = 0, kbc = 0;
+        for (let d = 0; d < ndd; d++) {
+          const v = blk[k + d];
+          jab += v * D1[ic + d];
+          J[ic + d] += v * dab;
+          kac += v * D1[ibd + d];
+          kbc += v * D1[iad + d];
+          K1[iad + d] += v * dbc;
+          K1[ibd + d] += v * dac;
+        }
+        K1[ia + c0 + c] += s * kac;
+        K1[ib + c0 + c] += s * kbc;
+        k += ndd;
+      }
+      J[ia + b0 + b] += s2 * jab;
     }
   }
 }
