@@ -9,7 +9,8 @@
  *  4. Cartesian → shell functions (spherical.ts).
  * No allocation per quartet or primitive: every buffer is preallocated per engine.
  *
- * Block layout returned by compute(P, Q): out[((fa·nb + fb)·nc + fc)·nd + fd] where a, b are
+ * Block layout returned by compute(P, Q) (or written at dst[dstOff …] when a destination is
+ * given): out[((fa·nb + fb)·nc + fc)·nd + fd] where a, b are
  * P.a, P.b and c, d are Q.a, Q.b (pairs in their stored orientation), and a shell's function
  * index is row · ncomp + component.
  */
@@ -69,6 +70,8 @@ export class EriEngine {
   private sized = new Set<EriClass>();
   private loops = [new Map<EriClass, KetLoop | null>(), new Map<EriClass, KetLoop | null>()];
   private bp = new Float64Array(11);
+  /** where compute() writes its block in the destination array */
+  private outOff = 0;
   private par = new Float64Array(17);
 
   /** The unrolled ket loop of a class (segmented or general ket), made on first use. */
@@ -152,7 +155,7 @@ export class EriEngine {
    * first nfunc(P.a)·nfunc(P.b)·nfunc(Q.a)·nfunc(Q.b) entries hold the block laid out as
    * described in the module comment.
    */
-  compute(P: ShellPair, Q: ShellPair): Float64Array {
+  compute(P: ShellPair, Q: ShellPair, dst?: Float64Array, dstOff = 0): Float64Array {
     const swap = Q.a.l + Q.b.l > P.a.l + P.b.l;
     const bra = swap ? Q : P;
     const ket = swap ? P : Q;
@@ -173,7 +176,8 @@ export class EriEngine {
       strides[0] = sPa; strides[1] = sPb; strides[2] = sQa; strides[3] = sQb;
     }
     const total = nfPa * nfPb * nfQa * nfQb;
-    const out = this.out.length >= total ? this.out : (this.out = new Float64Array(total));
+    const out = dst ?? (this.out.length >= total ? this.out : (this.out = new Float64Array(total)));
+    this.outOff = dst ? dstOff : 0;
     for (let rab = 0; rab < nrab; rab++) {
       for (let rcd = 0; rcd < nrcd; rcd++) {
         this.finishRows(cls, bra, ket, (rab * nrcd + rcd) * blk, rab, rcd, strides, out);
@@ -301,7 +305,7 @@ export class EriEngine {
     const na = ncart(la), nb = ncart(lb), nc = ncart(lc), nd = ncart(ld);
     if (lb === 0 && ld === 0 && la <= 1 && lc <= 1) {
       // (a0|c0) with s or Cartesian-order p: the contracted block is already the answer
-      const base = oa * sa + ob * sb + oc * sc + od * sd;
+      const base = this.outOff + oa * sa + ob * sb + oc * sc + od * sd;
       for (let a = 0; a < na; a++) for (let c = 0; c < nc; c++) out[base + a * sa + c * sc] = acc[off + a * nc + c];
       return;
     }
@@ -355,7 +359,7 @@ export class EriEngine {
     if (ketFirst) {
       for (let c = 0; c < tc.nout; c++)
         for (let d = 0; d < td.nout; d++) {
-          const base = (oc + c) * sc + (od + d) * sd;
+          const base = this.outOff + (oc + c) * sc + (od + d) * sd;
           for (let a = 0; a < ta.nout; a++) {
             const base2 = base + (oa + a) * sa + ob * sb;
             for (let b = 0; b < tb.nout; b++) out[base2 + b * sb] = cur[k++];
@@ -364,7 +368,7 @@ export class EriEngine {
     } else {
       for (let a = 0; a < ta.nout; a++)
         for (let b = 0; b < tb.nout; b++) {
-          const base = (oa + a) * sa + (ob + b) * sb + od * sd;
+          const base = this.outOff + (oa + a) * sa + (ob + b) * sb + od * sd;
           for (let c = 0; c < tc.nout; c++) out[base + (oc + c) * sc] = cur[k++];
         }
     }

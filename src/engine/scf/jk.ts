@@ -116,8 +116,7 @@ export class JkBuilder {
         chunk = new Float64Array(Math.max(CHUNK, size));
         used = 0;
       }
-      const blk = this.engine.compute(P, Q);
-      for (let k = 0; k < size; k++) chunk[used + k] = blk[k];
+      this.engine.compute(P, Q, chunk, used);
       qChunk[q] = this.chunks.length;
       qOff[q] = used;
       used += size;
