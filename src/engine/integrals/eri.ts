@@ -51,8 +51,47 @@ function sparseTransform(l: number, pure: boolean): SparseTransform {
   return { identity, nout: t.ncomp, nin: t.ncart, start: Int32Array.from(start), idx: Int32Array.from(idx), val: Float64Array.from(val) };
 }
 
+interface ClassEntry {
+  cls: EriClass;
+  loopSeg: KetLoop | null | undefined;
+  loopGen: KetLoop | null | undefined;
+}
+
 export class EriEngine {
   readonly basis: PreparedBasis;
+  /** class and unrolled loops per (bra type, ket type), looked up by small indices */
+  private typeIds = new Map<number, number>();
+  private table: (ClassEntry | undefined)[] = new Array(64 * 64).fill(undefined);
+  private overflow = new Map<number, ClassEntry>();
+
+  private tidOf(P: ShellPair): number {
+    if (P.tid < 0) {
+      let t = this.typeIds.get(P.lkey);
+      if (t === undefined) {
+        t = this.typeIds.size;
+        this.typeIds.set(P.lkey, t);
+      }
+      P.tid = t;
+    }
+    return P.tid;
+  }
+
+  private entry(bra: ShellPair, ket: ShellPair): ClassEntry {
+    const tb = this.tidOf(bra), tk = this.tidOf(ket);
+    // a dense table while the types are few (they are: a handful per basis), a map beyond
+    const dense = tb < 64 && tk < 64;
+    const k = dense ? tb * 64 + tk : tb * 65536 + tk;
+    let e = dense ? this.table[k] : this.overflow.get(k);
+    if (e === undefined) {
+      const cls = eriClass(bra.a.l, bra.b.l, ket.a.l, ket.b.l, bra.a.lmin, bra.b.lmin, ket.a.lmin, ket.b.lmin);
+      this.ensure(cls);
+      e = { cls, loopSeg: undefined, loopGen: undefined };
+      if (dense) this.table[k] = e;
+      else this.overflow.set(k, e);
+    }
+    return e;
+  }
+
   /** the shells integrals are computed over (basis shells, sp halves merged) */
   readonly shells: PreparedShell[];
   /** all pairs i ≥ j of those shells, index i(i+1)/2 + j */
@@ -159,13 +198,13 @@ export class EriEngine {
     const swap = Q.a.l + Q.b.l > P.a.l + P.b.l;
     const bra = swap ? Q : P;
     const ket = swap ? P : Q;
-    const cls = eriClass(bra.a.l, bra.b.l, ket.a.l, ket.b.l, bra.a.lmin, bra.b.lmin, ket.a.lmin, ket.b.lmin);
-    this.ensure(cls);
+    const entry = this.entry(bra, ket);
+    const cls = entry.cls;
     const blk = cls.nE * cls.nF;
     const nrab = bra.nrows;
     const nrcd = ket.nrows;
     this.acc.fill(0, 0, nrab * nrcd * blk);
-    this.contractPrimitives(cls, bra, ket, blk);
+    this.contractPrimitives(entry, bra, ket, blk);
     // strides of the computed (a b | c d) inside the caller's (P|Q) block
     const nfPa = P.a.nfunc, nfPb = P.b.nfunc, nfQa = Q.a.nfunc, nfQb = Q.b.nfunc;
     const sQb = 1, sQa = nfQb, sPb = nfQa * nfQb, sPa = nfPb * sPb;
@@ -191,9 +230,15 @@ export class EriEngine {
    * combination, only its kinds' slice [e of its bra kind][f of its ket kind]; tmp[rcd·blk …]
    * holds the per-bra-primitive partial sums [all e][f of the ket kind].
    */
-  private contractPrimitives(cls: EriClass, bra: ShellPair, ket: ShellPair, blk: number): void {
+  private contractPrimitives(entry: ClassEntry, bra: ShellPair, ket: ShellPair, blk: number): void {
+    const cls = entry.cls;
     const ketSeg = ket.segmented;
-    const loop = this.ketLoop(cls, ketSeg);
+    let loop = ketSeg ? entry.loopSeg : entry.loopGen;
+    if (loop === undefined) {
+      loop = this.ketLoop(cls, ketSeg);
+      if (ketSeg) entry.loopSeg = loop;
+      else entry.loopGen = loop;
+    }
     if (loop === null) return this.contractTables(cls, bra, ket, blk);
     const bothSegmented = bra.segmented && ketSeg;
     const target = bothSegmented ? this.acc : this.tmp;

@@ -45,6 +45,10 @@ export interface ShellPair {
   comboCoef: Float64Array;
   /** Cauchy–Schwarz factor √max|(ab|ab)|, filled by the screening pass */
   schwarz: number;
+  /** the pair's angular-momentum type, ((la·8 + la_min)·8 + lb)·8 + lb_min */
+  lkey: number;
+  /** small per-engine index of lkey (−1 until an engine assigns it) */
+  tid: number;
 }
 
 function maxExponent(s: PreparedShell): number {
@@ -130,5 +134,7 @@ export function makeShellPair(s1: PreparedShell, i1: number, s2: PreparedShell, 
     comboRow: Int32Array.from(comboRow),
     comboCoef: Float64Array.from(comboCoef),
     schwarz: Infinity,
+    lkey: ((a.l * 8 + a.lmin) * 8 + b.l) * 8 + b.lmin,
+    tid: -1,
   };
 }
