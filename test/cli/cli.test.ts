@@ -1,0 +1,97 @@
+// The `fieldbook` command end to end, in a scratch archive repository: check, run, compute
+// (records written once, never rewritten), verify, new. H2/STO-3G at R = 1.4 bohr keeps it fast;
+// its SCF energy −1.1167 Eh is from A. Szabo, N. S. Ostlund, Modern Quantum Chemistry (1989), §3.5.2.
+import { spawnSync } from "node:child_process";
+import { mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync, writeFileSync } from "node:fs";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
+import { fileURLToPath } from "node:url";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+
+const MAIN = fileURLToPath(new URL("../../src/cli/main.ts", import.meta.url));
+let repo = "";
+
+function cli(...args: string[]) {
+  const r = spawnSync(process.execPath, [MAIN, ...args], { cwd: repo, encoding: "utf8", env: { ...process.env, CI: "true" } });
+  return { code: r.status, out: r.stdout, err: r.stderr };
+}
+
+const H2 = `fieldbook: 1
+title: Hydrogen molecule, minimal basis
+tags: [test]
+molecule:
+  units: bohr
+  xyz: |
+    H 0 0 0
+    H 0 0 1.4
+model:
+  basis: STO-3G
+checks:
+  - quantity: scf_energy
+    expected: -1.1167
+    tolerance: 1.0e-4
+    unit: hartree
+    source: "A. Szabo, N. S. Ostlund, Modern Quantum Chemistry (1989), §3.5.2"
+`;
+
+beforeAll(() => {
+  repo = mkdtempSync(join(tmpdir(), "fieldbook-cli-"));
+  mkdirSync(join(repo, "calculations", "h2"), { recursive: true });
+  writeFileSync(join(repo, "calculations", "h2", "sto3g.yaml"), H2);
+});
+afterAll(() => rmSync(repo, { recursive: true, force: true }));
+
+describe("the fieldbook command", () => {
+  it("prints help for every verb", () => {
+    for (const verb of ["run", "check", "compute", "build", "verify", "new"]) {
+      const r = cli(verb, "--help");
+      expect(r.code).toBe(0);
+      expect(r.out).toMatch(/Usage: fieldbook/);
+    }
+  });
+
+  it("checks valid specs and reports every error of a broken one with file:line:column", () => {
+    expect(cli("check").code).toBe(0);
+    writeFileSync(join(repo, "calculations", "broken.yaml"), "fieldbook: 1\ntitle: x\nmolecule:\n  charge: 0\n  multiplicty: 1\n  xyz: |\n    H 0 0 0\nmodel:\n  basis: STO-3G\n");
+    const r = cli("check");
+    expect(r.code).toBe(1);
+    expect(r.err).toMatch(/calculations\/broken\.yaml:5:3: .*multiplicty/);
+    rmSync(join(repo, "calculations", "broken.yaml"));
+  });
+
+  it("runs one spec and prints the energy and the passed check", () => {
+    const r = cli("run", "calculations/h2/sto3g.yaml");
+    expect(r.code).toBe(0);
+    expect(r.out).toMatch(/E\(SCF\)\s+-1\.11671/);
+    expect(r.out).toMatch(/check scf_energy: PASS/);
+  });
+
+  it("computes missing records once and never rewrites them", () => {
+    const first = cli("compute", "--jobs", "1");
+    expect(first.code).toBe(0);
+    const dir = join(repo, "content", "records", "h2", "sto3g");
+    const files = readdirSync(dir).filter((f) => f.endsWith(".json"));
+    expect(files).toHaveLength(1);
+    const before = readFileSync(join(dir, files[0]), "utf8");
+    const record = JSON.parse(before);
+    expect(record.status).toBe("ok");
+    expect(record.checks[0].status).toBe("pass");
+    const second = cli("compute");
+    expect(second.out).toMatch(/0 calculation\(s\) to compute/);
+    expect(readFileSync(join(dir, files[0]), "utf8")).toBe(before);
+  });
+
+  it("verifies that the archived numbers reproduce", () => {
+    const r = cli("verify");
+    expect(r.code).toBe(0);
+    expect(r.out).toMatch(/h2\/sto3g: reproduced/);
+  });
+
+  it("starts a spec from an XYZ file and refuses to overwrite", () => {
+    writeFileSync(join(repo, "water.xyz"), "3\nwater\nO 0 0 0.1173\nH 0 0.7572 -0.4692\nH 0 -0.7572 -0.4692\n");
+    const r = cli("new", "water.xyz", "--out", "calculations/water.yaml");
+    expect(r.code).toBe(0);
+    expect(cli("check", "calculations/water.yaml").code).toBe(0);
+    expect(cli("new", "water.xyz", "--out", "calculations/water.yaml").code).toBe(1);
+  });
+});
