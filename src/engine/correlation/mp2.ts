@@ -126,10 +126,16 @@ export function mp2Energy(scf: ScfResult, options: Mp2Options): Mp2Energies {
         options.onBatch?.(i0 + count, noa);
       }));
   }
+  return { ...mp2Summary(scf, fc, os, ss), transform: stats };
+}
+
+/** The reported MP2 numbers from the same-spin and opposite-spin sums (exact or fitted). */
+export function mp2Summary(scf: ScfResult, fc: number, os: number, ss: number): Omit<Mp2Energies, "transform"> {
+  const m = scf.orthogonalization.nmo;
   const corr = os + ss;
   const scs = SCS_OPPOSITE_SPIN * os + SCS_SAME_SPIN * ss;
   return {
-    reference: scf.reference,
+    reference: scf.reference as "rhf" | "uhf",
     frozen_core_orbitals: fc,
     active_occupied: [scf.nalpha - fc, scf.nbeta - fc],
     virtual: [m - scf.nalpha, m - scf.nbeta],
@@ -139,6 +145,5 @@ export function mp2Energy(scf: ScfResult, options: Mp2Options): Mp2Energies {
     scs: { correlation: scs, opposite_spin_scale: SCS_OPPOSITE_SPIN, same_spin_scale: SCS_SAME_SPIN },
     total: scf.energy + corr,
     scs_total: scf.energy + scs,
-    transform: stats,
   };
 }

@@ -13,7 +13,7 @@ import { EriEngine } from "../integrals/eri.ts";
 import type { ShellPair } from "../integrals/shell-pairs.ts";
 import type { PreparedBasis, PreparedShell } from "../integrals/shells.ts";
 import type { ScfResult } from "../scf/scf.ts";
-import { type Mp2Energies, SCS_OPPOSITE_SPIN, SCS_SAME_SPIN } from "./mp2.ts";
+import { type Mp2Energies, mp2Summary } from "./mp2.ts";
 
 export interface RiMp2Options {
   frozen: number;
@@ -234,20 +234,5 @@ export function riMp2Energy(scf: ScfResult, options: RiMp2Options): RiMp2Energie
           }
       }
   }
-  const corr = os + ss;
-  const scs = SCS_OPPOSITE_SPIN * os + SCS_SAME_SPIN * ss;
-  return {
-    reference: scf.reference,
-    frozen_core_orbitals: fc,
-    active_occupied: [scf.nalpha - fc, scf.nbeta - fc],
-    virtual: [m - scf.nalpha, m - scf.nbeta],
-    correlation: corr,
-    same_spin: ss,
-    opposite_spin: os,
-    scs: { correlation: scs, opposite_spin_scale: SCS_OPPOSITE_SPIN, same_spin_scale: SCS_SAME_SPIN },
-    total: scf.energy + corr,
-    scs_total: scf.energy + scs,
-    fitting_functions: naux,
-    peak_bytes: peak,
-  };
+  return { ...mp2Summary(scf, fc, os, ss), fitting_functions: naux, peak_bytes: peak };
 }

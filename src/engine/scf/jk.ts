@@ -202,7 +202,8 @@ export class JkBuilder {
   }
 
   /**
-   * One block into J and K in a single pass. The innermost index d runs along rows of every
+   * One block into J only, or into J and the K of two densities (UHF, ROHF, stability), in a
+   * single pass; one density with K goes through digestOne. The innermost index d runs along rows of every
    * matrix it touches (J_cd, D_cd, D_ad, D_bd, K_ad, K_bd), so accesses are contiguous; the
    * other four updates are hoisted out of the d loop.
    */
@@ -238,20 +239,6 @@ export class JkBuilder {
               jab += v * Dt[ic + d];
               J[ic + d] += v * dab;
             }
-          } else if (!two) {
-            const dbc = s * D1[ib + c0 + c], dac = s * D1[ia + c0 + c];
-            let kac = 0, kbc = 0;
-            for (let d = 0; d < ndd; d++) {
-              const v = blk[k + d];
-              jab += v * Dt[ic + d];
-              J[ic + d] += v * dab;
-              kac += v * D1[ibd + d];
-              kbc += v * D1[iad + d];
-              K1[iad + d] += v * dbc;
-              K1[ibd + d] += v * dac;
-            }
-            K1[ia + c0 + c] += s * kac;
-            K1[ib + c0 + c] += s * kbc;
           } else {
             const dbc = s * D1[ib + c0 + c], dac = s * D1[ia + c0 + c];
             const ebc = s * D2[ib + c0 + c], eac = s * D2[ia + c0 + c];
