@@ -6,7 +6,7 @@ import { basename, join, relative, resolve } from "node:path";
 import { MessageChannel } from "node:worker_threads";
 import { Piscina } from "piscina";
 import {
-  acquireLock, currentVersion, type FieldbookRecord, hasRecord, listRecords, LockHeldError, removeTempFiles, writeRecord,
+  acquireLock, type FieldbookRecord, hasRecord, listRecords, LockHeldError, removeTempFiles, writeRecord,
 } from "../archive/index.ts";
 import { InputError } from "../engine/errors.ts";
 import { calculate, formatErrors, type Prepared, prepareSpec } from "./calculate.ts";
@@ -158,18 +158,12 @@ function verifiedNumbers(rec: FieldbookRecord): Record<string, [number | null, n
 
 export function verifyCommand(ids: string[]): number {
   const root = repositoryRoot();
-  const records = listRecords(root);
-  const byId = new Map<string, FieldbookRecord>();
-  for (const r of records) byId.set(r.id, r);
-  const chosen = ids.length ? ids : [...byId.keys()];
+  // every archived version, not only the current one: each is a published number
+  const records = listRecords(root).filter((r) => ids.length === 0 || ids.includes(r.id));
+  if (ids.length) for (const id of ids) if (!records.some((r) => r.id === id)) err(`${id}: no record`);
   let moved = 0;
-  for (const id of chosen) {
-    const rec = currentVersion(root, id);
-    if (!rec) {
-      err(`${id}: no record`);
-      moved++;
-      continue;
-    }
+  for (const rec of records) {
+    const label = `${rec.id} @ ${rec.input_hash.replace(/^sha256:/, "").slice(0, 12)}`;
     // recompute from the archived (normalized) spec itself, not from today's spec file
     const p: Prepared = {
       spec: rec.spec as never, text: rec.spec_source as string, hash: rec.input_hash,
@@ -186,11 +180,11 @@ export function verifyCommand(ids: string[]): number {
     if (rec.status !== again.status) diffs.push(`status: archived ${rec.status}, now ${again.status}`);
     if (diffs.length) {
       moved++;
-      out(`${id}: MOVED\n  ${diffs.join("\n  ")}`);
-    } else out(`${id}: reproduced`);
+      out(`${label}: MOVED\n  ${diffs.join("\n  ")}`);
+    } else out(`${label}: reproduced`);
   }
-  out(`${chosen.length} record(s) verified, ${moved} with differences`);
-  return moved ? 1 : 0;
+  out(`${records.length} record(s) verified, ${moved} with differences`);
+  return moved || (ids.length && records.length === 0) ? 1 : 0;
 }
 
 export function newCommand(xyzPath: string, values: { out?: string; title?: string; basis?: string; charge?: string }): number {

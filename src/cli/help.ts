@@ -63,9 +63,10 @@ Example:
 `,
   verify: `Usage: fieldbook verify [ids…]
 
-Recomputes archived records with the current engine and reports every number that moved
-beyond its tolerance (energies 1e-8 Eh, other properties 1e-6 in their units). Exits
-non-zero on any difference. This is the reproducibility check a referee would ask for.
+Recomputes every archived record (all versions, or those of the given ids) from its own
+archived spec with the current engine, and reports every number that moved beyond its
+tolerance (energies 1e-8 Eh, dipole and charges 1e-6 au). Exits non-zero on any difference.
+This is the reproducibility check a referee would ask for.
 
 Examples:
   fieldbook verify

@@ -84,7 +84,7 @@ describe("the fieldbook command", () => {
   it("verifies that the archived numbers reproduce", () => {
     const r = cli("verify");
     expect(r.code).toBe(0);
-    expect(r.out).toMatch(/h2\/sto3g: reproduced/);
+    expect(r.out).toMatch(/h2\/sto3g @ [0-9a-f]{12}: reproduced/);
   });
 
   it("starts a spec from an XYZ file and refuses to overwrite", () => {
