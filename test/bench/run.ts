@@ -105,17 +105,22 @@ interface RhfPass {
   maxRssBytes: number;
 }
 
-/** One whole RHF calculation: one-electron and two-electron integrals, guess, iterations. */
-function rhfPass(c: Case): RhfPass {
+/** A closed-shell RHF of a benchmark molecule, timed from basis construction to convergence. */
+function timedRhf(c: Case) {
   const geo = loadGeometry(c.molecule);
   const t0 = performance.now();
   const basis = loadBasis(c.molecule, c.basis);
   const electrons = geo.atoms.reduce((s, a) => s + a.z, 0);
-  const r = runScf({
+  const scf = runScf({
     basis, nuclei: geo.atoms.map((a) => ({ charge: a.z, x: a.xyz[0], y: a.xyz[1], z: a.xyz[2] })),
     nuclearRepulsion: nuclearRepulsion({ atoms: geo.atoms }), nalpha: electrons / 2, nbeta: electrons / 2, reference: "rhf",
   });
-  const seconds = (performance.now() - t0) / 1000;
+  return { geo, basis, scf, seconds: (performance.now() - t0) / 1000 };
+}
+
+/** One whole RHF calculation: one-electron and two-electron integrals, guess, iterations. */
+function rhfPass(c: Case): RhfPass {
+  const { basis, scf: r, seconds } = timedRhf(c);
   return { nbf: basis.nbf, energy: r.energy, converged: r.converged, iterations: r.iterations.length, seconds,
     integralSeconds: r.jk.integralSeconds, storedBytes: r.jk.storedBytes, maxRssBytes: process.resourceUsage().maxRSS * 1024 };
 }
@@ -191,15 +196,7 @@ function main() {
   for (const c of opt.scfOnly ? [] : MP2_CASES) {
     const name = `${c.molecule} ${c.basis}`;
     if (opt.only && !name.includes(opt.only)) continue;
-    const geo = loadGeometry(c.molecule);
-    const t0 = performance.now();
-    const basis = loadBasis(c.molecule, c.basis);
-    const electrons = geo.atoms.reduce((s, a) => s + a.z, 0);
-    const scf = runScf({
-      basis, nuclei: geo.atoms.map((a) => ({ charge: a.z, x: a.xyz[0], y: a.xyz[1], z: a.xyz[2] })),
-      nuclearRepulsion: nuclearRepulsion({ atoms: geo.atoms }), nalpha: electrons / 2, nbeta: electrons / 2, reference: "rhf",
-    });
-    const scfSeconds = (performance.now() - t0) / 1000;
+    const { geo, basis, scf, seconds: scfSeconds } = timedRhf(c);
     const frozen = geo.atoms.reduce((s, a) => s + coreOrbitals(a.z), 0);
     const fit = loadBasis(c.molecule, c.fitting);
     const ex = best(opt.repeat, () => {
