@@ -18,7 +18,7 @@ const canStripTypes = Number(process.versions.node.split(".")[0]) >= 23;
 
 /** Run an ES module snippet in a child Node process (it can import the .ts store). */
 function child(code: string, ...args: string[]) {
-  return spawnSync(process.execPath, ["--input-type=module", "-e", code, ...args], { encoding: "utf8" });
+  return spawnSync(process.execPath, ["--input-type=module", "-e", code, ...args], { encoding: "utf8", timeout: 60_000 });
 }
 
 const roots: string[] = [];

@@ -12,7 +12,7 @@ const MAIN = fileURLToPath(new URL("../../src/cli/main.ts", import.meta.url));
 let repo = "";
 
 function cli(...args: string[]) {
-  const r = spawnSync(process.execPath, [MAIN, ...args], { cwd: repo, encoding: "utf8", env: { ...process.env, CI: "true" } });
+  const r = spawnSync(process.execPath, [MAIN, ...args], { cwd: repo, encoding: "utf8", env: { ...process.env, CI: "true" }, timeout: 120_000 });
   return { code: r.status, out: r.stdout, err: r.stderr };
 }
 

@@ -69,7 +69,7 @@ export function buildSite(): BuiltSite {
   const repoRecords = join(PROJECT, "content", "records");
   if (existsSync(repoRecords)) cpSync(repoRecords, join(root, "content", "records"), { recursive: true, filter: (src) => !/\.fieldbook\.lock/.test(src) && !/\.tmp$/.test(src) });
   const cli = join(PROJECT, "src", "cli", "main.ts");
-  const compute = () => execFileSync(NODE, [cli, "compute", "--jobs", "2"], { cwd: root, stdio: "pipe", env: { ...process.env, CI: "true" } });
+  const compute = () => execFileSync(NODE, [cli, "compute", "--jobs", "2"], { cwd: root, stdio: "pipe", env: { ...process.env, CI: "true" }, timeout: 180_000 });
   writeFileSync(join(calcDir, "hostile-note.yaml"), HOSTILE_SPEC);
   writeFileSync(join(calcDir, "two-versions.yaml"), twoVersionsSpec("1.0e-6"));
   compute();
@@ -77,7 +77,7 @@ export function buildSite(): BuiltSite {
   compute();
   const dist = join(root, "dist");
   execFileSync(NODE, [join(PROJECT, "node_modules", "astro", "bin", "astro.mjs"), "build"], {
-    cwd: PROJECT, stdio: "pipe", env: { ...process.env, FIELDBOOK_ROOT: root, FIELDBOOK_OUT_DIR: dist, ASTRO_TELEMETRY_DISABLED: "1" },
+    cwd: PROJECT, stdio: "pipe", timeout: 240_000, env: { ...process.env, FIELDBOOK_ROOT: root, FIELDBOOK_OUT_DIR: dist, ASTRO_TELEMETRY_DISABLED: "1" },
   });
   return { root, dist };
 }
