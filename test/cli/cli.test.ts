@@ -13,7 +13,7 @@ let repo = "";
 
 function cli(...args: string[]) {
   const r = spawnSync(process.execPath, [MAIN, ...args], { cwd: repo, encoding: "utf8", env: { ...process.env, CI: "true" }, timeout: 120_000 });
-  return { code: r.status, out: r.stdout, err: r.stderr };
+  return { code: r.status, out: r.stdout, err: r.stderr + (r.signal ? ` [signal ${r.signal}] ${r.error?.message ?? ''}` : '') };
 }
 
 const H2 = `fieldbook: 1
@@ -83,6 +83,7 @@ describe("the fieldbook command", () => {
 
   it("verifies that the archived numbers reproduce", () => {
     const r = cli("verify");
+    expect(r.err).toBe("");
     expect(r.code).toBe(0);
     expect(r.out).toMatch(/h2\/sto3g @ [0-9a-f]{12}: reproduced/);
   });
