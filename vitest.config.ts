@@ -7,5 +7,8 @@ export default defineConfig({
     exclude: ["test/heavy/**", "node_modules/**"],
     testTimeout: 120_000,
     hookTimeout: 120_000,
+    // Node's rare exit-time deadlock with in-flight Maglev compile jobs (nodejs/node#54918)
+    // hangs a worker about once in a hundred heavy runs; the mid-tier JIT is not needed.
+    execArgv: ["--no-maglev"],
   },
 });

@@ -136,8 +136,11 @@ export async function computeCommand(opts: { jobs?: number; shard?: [number, num
 
 export function buildSite(): number {
   const root = repositoryRoot();
-  const astro = join(root, "node_modules", ".bin", "astro");
-  const r = spawnSync(existsSync(astro) ? astro : "astro", ["build"], { cwd: root, stdio: "inherit" });
+  const astro = join(root, "node_modules", "astro", "bin", "astro.mjs");
+  // this Node, with the same --no-maglev as the command itself (see main.ts)
+  const r = existsSync(astro)
+    ? spawnSync(process.execPath, ["--no-maglev", astro, "build"], { cwd: root, stdio: "inherit" })
+    : spawnSync("astro", ["build"], { cwd: root, stdio: "inherit" });
   return r.status ?? 1;
 }
 

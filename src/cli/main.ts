@@ -1,7 +1,13 @@
-#!/usr/bin/env node
+#!/usr/bin/env -S node --no-maglev
 /**
  * The `fieldbook` command: a thin shell over spec (parse, validate), archive (hash, records)
  * and the engine. Verbs: run, check, compute, build, verify, new; `--help` on each.
+ *
+ * Started with --no-maglev (the start line, the npm scripts): with Node's mid-tier JIT on, about
+ * one run in a hundred deadlocked at exit after printing everything (nodejs/node#54918: a
+ * compile job and the shutdown drain wait on each other); 500 runs without it never did.
+ * GLIBC_TUNABLES=glibc.malloc.hugetlb=1 in the npm scripts lets the large ERI store be backed
+ * by huge pages, which cuts its first-touch page faults.
  */
 import { parseArgs } from "node:util";
 import { HELP, VERBS } from "./help.ts";

@@ -34,7 +34,7 @@ export function repositoryCommit(root: string): string | null {
   if (cachedCommit?.root === root) return cachedCommit.commit;
   let commit: string | null = null;
   try {
-    commit = execFileSync("git", ["rev-parse", "HEAD"], { cwd: root, stdio: ["ignore", "pipe", "ignore"] }).toString().trim() || null;
+    commit = execFileSync("git", ["rev-parse", "HEAD"], { cwd: root, stdio: ["ignore", "pipe", "ignore"], timeout: 10_000 }).toString().trim() || null;
   } catch {
     commit = null;
   }

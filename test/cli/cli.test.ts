@@ -8,11 +8,12 @@ import { join } from "node:path";
 import { fileURLToPath } from "node:url";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 
+// --no-maglev as in the command's own start line (see src/cli/main.ts)
 const MAIN = fileURLToPath(new URL("../../src/cli/main.ts", import.meta.url));
 let repo = "";
 
 function cli(...args: string[]) {
-  const r = spawnSync(process.execPath, [MAIN, ...args], { cwd: repo, encoding: "utf8", env: { ...process.env, CI: "true" }, timeout: 120_000 });
+  const r = spawnSync(process.execPath, ["--no-maglev", MAIN, ...args], { cwd: repo, encoding: "utf8", env: { ...process.env, CI: "true" }, timeout: 120_000 });
   return { code: r.status, out: r.stdout, err: r.stderr + (r.signal ? ` [signal ${r.signal}] ${r.error?.message ?? ''}` : '') };
 }
 

@@ -69,14 +69,14 @@ export function buildSite(): BuiltSite {
   const repoRecords = join(PROJECT, "content", "records");
   if (existsSync(repoRecords)) cpSync(repoRecords, join(root, "content", "records"), { recursive: true, filter: (src) => !/\.fieldbook\.lock/.test(src) && !/\.tmp$/.test(src) });
   const cli = join(PROJECT, "src", "cli", "main.ts");
-  const compute = () => execFileSync(NODE, [cli, "compute", "--jobs", "2"], { cwd: root, stdio: "pipe", env: { ...process.env, CI: "true" }, timeout: 180_000 });
+  const compute = () => execFileSync(NODE, ["--no-maglev", cli, "compute", "--jobs", "2"], { cwd: root, stdio: "pipe", env: { ...process.env, CI: "true" }, timeout: 180_000 });
   writeFileSync(join(calcDir, "hostile-note.yaml"), HOSTILE_SPEC);
   writeFileSync(join(calcDir, "two-versions.yaml"), twoVersionsSpec("1.0e-6"));
   compute();
   writeFileSync(join(calcDir, "two-versions.yaml"), twoVersionsSpec("1.0e-10"));
   compute();
   const dist = join(root, "dist");
-  execFileSync(NODE, [join(PROJECT, "node_modules", "astro", "bin", "astro.mjs"), "build"], {
+  execFileSync(NODE, ["--no-maglev", join(PROJECT, "node_modules", "astro", "bin", "astro.mjs"), "build"], {
     cwd: PROJECT, stdio: "pipe", timeout: 240_000, env: { ...process.env, FIELDBOOK_ROOT: root, FIELDBOOK_OUT_DIR: dist, ASTRO_TELEMETRY_DISABLED: "1" },
   });
   return { root, dist };

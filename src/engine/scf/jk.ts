@@ -51,6 +51,8 @@ export class JkBuilder {
   /** surviving quartets as pair indices (bra, ket) */
   private qBra: Int32Array;
   private qKet: Int32Array;
+  /** per quartet its Schwarz bound */
+  private qBound: Float64Array;
   /** per quartet the four cross pairs (ac, ad, bc, bd) whose density exchange touches */
   private qCross: Int32Array;
   /** in-core: chunk index and offset of each quartet's block */
@@ -66,44 +68,61 @@ export class JkBuilder {
     this.engine = new EriEngine(basis);
     const pairs = this.engine.pairs;
     computeSchwarzFactors(this.engine);
-    const bra: number[] = [];
-    const ket: number[] = [];
+    // two passes over the pair triangle, so the quartet lists are typed arrays from the start
+    let count = 0;
     let doubles = 0;
     for (let i = 0; i < pairs.length; i++) {
       const P = pairs[i];
       for (let j = 0; j <= i; j++) {
         const Q = pairs[j];
         if (P.schwarz * Q.schwarz < this.threshold) continue;
-        bra.push(i);
-        ket.push(j);
+        count++;
         doubles += P.a.nfunc * P.b.nfunc * Q.a.nfunc * Q.b.nfunc;
       }
     }
-    this.qBra = Int32Array.from(bra);
-    this.qKet = Int32Array.from(ket);
-    this.qCross = new Int32Array(4 * bra.length);
-    for (let q = 0; q < bra.length; q++) {
-      const P = pairs[bra[q]], Q = pairs[ket[q]];
-      const e = this.engine;
-      this.qCross[4 * q] = e.pairIndex(P.ia, Q.ia);
-      this.qCross[4 * q + 1] = e.pairIndex(P.ia, Q.ib);
-      this.qCross[4 * q + 2] = e.pairIndex(P.ib, Q.ia);
-      this.qCross[4 * q + 3] = e.pairIndex(P.ib, Q.ib);
+    this.qBra = new Int32Array(count);
+    this.qKet = new Int32Array(count);
+    this.qBound = new Float64Array(count);
+    this.qCross = new Int32Array(4 * count);
+    const e = this.engine;
+    for (let i = 0, q = 0; i < pairs.length; i++) {
+      const P = pairs[i];
+      for (let j = 0; j <= i; j++) {
+        const Q = pairs[j];
+        const bound = P.schwarz * Q.schwarz;
+        if (bound < this.threshold) continue;
+        this.qBra[q] = i;
+        this.qKet[q] = j;
+        this.qBound[q] = bound;
+        this.qCross[4 * q] = e.pairIndex(P.ia, Q.ia);
+        this.qCross[4 * q + 1] = e.pairIndex(P.ia, Q.ib);
+        this.qCross[4 * q + 2] = e.pairIndex(P.ib, Q.ia);
+        this.qCross[4 * q + 3] = e.pairIndex(P.ib, Q.ib);
+        q++;
+      }
     }
     this.pairDmax = new Float64Array(pairs.length);
     const budget = options.memoryBytes ?? 4 * 1024 ** 3;
     const mode = options.mode ?? (doubles * 8 <= budget ? "in-core" : "direct");
-    this.stats = { mode, storedBytes: 0, quartets: bra.length, lastBuildQuartets: 0, integralSeconds: 0 };
-    if (mode === "in-core") this.store();
+    this.stats = { mode, storedBytes: 0, quartets: count, lastBuildQuartets: 0, integralSeconds: 0 };
+    if (mode === "in-core") this.store(doubles);
   }
 
-  private store(): void {
+  private store(doubles: number): void {
     const t0 = performance.now();
     const n = this.qBra.length;
     const qChunk = new Int32Array(n);
     const qOff = new Int32Array(n);
     const pairs = this.engine.pairs;
-    let chunk = new Float64Array(CHUNK);
+    // One allocation of the exact size when the allocator gives it: a single large mapping is
+    // the one most likely to be backed by huge pages, and first-touch page faults cost as much
+    // as a third of the integral time on a VM. Chunks otherwise.
+    let chunk: Float64Array;
+    try {
+      chunk = new Float64Array(Math.max(doubles, 1));
+    } catch {
+      chunk = new Float64Array(CHUNK);
+    }
     let used = 0;
     let bytes = 0;
     for (let q = 0; q < n; q++) {
@@ -147,7 +166,7 @@ export class JkBuilder {
    * J (of the sum of the densities) and K (of each density) for symmetric densities.
    * `wantK` false skips exchange. Results are new nbf × nbf arrays.
    */
-  build(densities: Float64Array[], wantK = true): { J: Float64Array; K: Float64Array[] } {
+  build(densities: Float64Array[], wantK = true, threshold = this.threshold): { J: Float64Array; K: Float64Array[] } {
     const n = this.nbf;
     const nd = densities.length;
     const Dt = new Float64Array(n * n);
@@ -158,25 +177,34 @@ export class JkBuilder {
     const pairs = this.engine.pairs;
     const pd = this.pairDmax;
     const cross = this.qCross;
-    const th = this.threshold;
+    const th = threshold;
     let built = 0;
-    for (let q = 0; q < this.qBra.length; q++) {
-      const P = pairs[this.qBra[q]];
-      const Q = pairs[this.qKet[q]];
+    const qBra = this.qBra, qKet = this.qKet, qBound = this.qBound;
+    const inCore = this.qChunk !== null;
+    if (nd > 2) throw new Error("J/K builds take one or two densities");
+    let pdAll = 0;
+    for (let p = 0; p < pd.length; p++) if (pd[p] > pdAll) pdAll = pd[p];
+    for (let q = 0; q < qBra.length; q++) {
+      const bound = qBound[q];
+      if (bound * pdAll < th) continue;
+      const b = qBra[q], k = qKet[q];
       // density screening: the largest density element any of J or K would multiply
-      const dmax = Math.max(
-        pd[this.qBra[q]], pd[this.qKet[q]],
-        pd[cross[4 * q]], pd[cross[4 * q + 1]], pd[cross[4 * q + 2]], pd[cross[4 * q + 3]],
-      );
-      if (P.schwarz * Q.schwarz * dmax < th) continue;
+      let dmax = pd[b] > pd[k] ? pd[b] : pd[k];
+      const c0 = pd[cross[4 * q]], c1 = pd[cross[4 * q + 1]], c2 = pd[cross[4 * q + 2]], c3 = pd[cross[4 * q + 3]];
+      if (c0 > dmax) dmax = c0;
+      if (c1 > dmax) dmax = c1;
+      if (c2 > dmax) dmax = c2;
+      if (c3 > dmax) dmax = c3;
+      if (bound * dmax < th) continue;
       built++;
+      const P = pairs[b];
+      const Q = pairs[k];
       let blk: Float64Array;
       let off = 0;
-      if (this.qChunk !== null) {
-        blk = this.chunks[this.qChunk[q]];
+      if (inCore) {
+        blk = this.chunks[this.qChunk![q]];
         off = this.qOff![q];
       } else blk = this.engine.compute(P, Q);
-      if (nd > 2) throw new Error("J/K builds take one or two densities");
       if (nd === 1 && wantK) digestOne(P, Q, blk, off, this.nbf, densities[0], J, K[0]);
       else this.digest(P, Q, blk, off, densities, Dt, J, K, nd, wantK);
     }
@@ -279,6 +307,18 @@ function digestOne(P: ShellPair, Q: ShellPair, blk: Float64Array, off: number, n
   if (Q.ia === Q.ib) s *= 0.5;
   if (P === Q) s *= 0.5;
   const s2 = 2 * s;
+  if (na * nb * nc * ndd === 1) {
+    // (ss|ss), the most common block with hydrogen-rich molecules: no loops
+    const v = s * blk[off];
+    const ia = a0 * n, ib = b0 * n, ic = c0 * n;
+    J[ia + b0] += 2 * v * D1[ic + d0];
+    J[ic + d0] += 2 * v * D1[ia + b0];
+    K1[ia + c0] += v * D1[ib + d0];
+    K1[ib + c0] += v * D1[ia + d0];
+    K1[ia + d0] += v * D1[ib + c0];
+    K1[ib + d0] += v * D1[ia + c0];
+    return;
+  }
   let k = off;
   for (let a = 0; a < na; a++) {
     const ia = (a0 + a) * n;

@@ -163,9 +163,9 @@ export function runScf(
     state = { C: [s.C, s.C], eps: [s.eps, s.eps] };
   } else {
     const D0 = sadDensity(basis, problem.nuclei);
-    const half = D0.map((x) => x / 2);
-    const { J, K } = jk.build([half, half]);
-    const F = H.map((h, k) => h + J[k] - K[0][k]);
+    // F = H + J[D0] − ½K[D0], from one density (the single-density build is the fast one)
+    const { J, K } = jk.build([D0]);
+    const F = H.map((h, k) => h + J[k] - 0.5 * K[0][k]);
     const s = solve(toOrth(F));
     state = { C: [s.C, s.C], eps: [s.eps, s.eps] };
   }
@@ -225,7 +225,7 @@ export function runScf(
     } else {
       const dA = Da.map((x, k) => x - Dprev![0][k]);
       const dB = reference === "rhf" ? dA : Db.map((x, k) => x - Dprev![1][k]);
-      const r = jk.build(reference === "rhf" ? [dA] : [dA, dB]);
+      const r = jk.build(reference === "rhf" ? [dA] : [dA, dB], true, o.jk?.threshold !== undefined ? o.jk.threshold / 10 : 1e-13);
       const Jn = new Float64Array(n * n);
       const f = reference === "rhf" ? 2 : 1;
       for (let k = 0; k < n * n; k++) Jn[k] = J[k] + f * r.J[k];
