@@ -1,11 +1,8 @@
-#!/usr/bin/env -S node --no-maglev
+#!/usr/bin/env node
 /**
  * The `fieldbook` command: a thin shell over spec (parse, validate), archive (hash, records)
  * and the engine. Verbs: run, check, compute, build, verify, new; `--help` on each.
  *
- * Started with --no-maglev (the start line, the npm scripts): with Node's mid-tier JIT on, about
- * one run in a hundred deadlocked at exit after printing everything (nodejs/node#54918: a
- * compile job and the shutdown drain wait on each other); 500 runs without it never did.
  * GLIBC_TUNABLES=glibc.malloc.hugetlb=1 in the npm scripts lets the large ERI store be backed
  * by huge pages, which cuts its first-touch page faults.
  */
@@ -78,10 +75,19 @@ function fail(message: string): number {
   return 2;
 }
 
+/**
+ * Exit after a short idle pause: background JIT compile jobs still in flight when the process
+ * shuts down can deadlock Node's exit (nodejs/node#54918; it hung about one run in a hundred
+ * here). Idle, they finish first. 30 ms is nothing next to a calculation.
+ */
+function exitAfterIdle(code: number): void {
+  setTimeout(() => process.exit(code), 30);
+}
+
 main(process.argv.slice(2)).then(
-  (code) => process.exit(code),
+  (code) => exitAfterIdle(code),
   (e) => {
     process.stderr.write(`fieldbook: internal error: ${e instanceof Error ? e.stack : String(e)}\n`);
-    process.exit(70);
+    exitAfterIdle(70);
   },
 );

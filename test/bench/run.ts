@@ -165,7 +165,7 @@ function measureInChild<T extends { seconds: number }>(section: string, c: Case 
   let b: T | undefined;
   for (let k = 0; k < runs; k++) {
     const r = spawnSync(process.execPath, [...process.execArgv, SCRIPT, "--measure", JSON.stringify({ section, c, repeat })], {
-      encoding: "utf8", maxBuffer: 1 << 26, env: process.env, stdio: ["ignore", "pipe", "inherit"],
+      encoding: "utf8", maxBuffer: 1 << 26, env: process.env, stdio: ["ignore", "pipe", "inherit"], timeout: 1800_000,
     });
     if (r.status !== 0) throw new Error(`bench child for ${section} ${c.molecule} ${c.basis} failed (${r.status ?? r.signal})`);
     const x = JSON.parse(r.stdout.trim().split("\n").pop()!) as T & { plain?: { seconds: number } };
@@ -299,5 +299,7 @@ if (import.meta.url === `file://${process.argv[1]}`) {
   if (i > 0) {
     const { section, c, repeat } = JSON.parse(process.argv[i + 1]);
     process.stdout.write(JSON.stringify(measure(section, c, repeat)) + "\n");
+    // idle before exiting, as the command does (src/cli/main.ts: Node's exit-time JIT deadlock)
+    setTimeout(() => process.exit(0), 30);
   } else main();
 }
