@@ -2,7 +2,7 @@
  * Small dense linear algebra on row-major Float64Arrays: a[i * cols + j]. Square n × n unless
  * the dimensions are given. Allocation happens only where a result is returned.
  */
-import { EigenvalueDecomposition, Matrix } from "ml-matrix";
+import { symmetricEigenFlat } from "./eigen.ts";
 
 /**
  * C = A·B with A (n × k), B (k × m). Four rows of B per pass over a row of C, so each load and
@@ -68,29 +68,9 @@ export interface SymmetricEigen {
   vectors: Float64Array;
 }
 
-/**
- * Eigen-decomposition of a symmetric matrix. The matrix is symmetrized explicitly first: the
- * library decides "symmetric" by exact equality otherwise, and a numerically symmetric Fock
- * matrix could silently take the general (non-symmetric) path.
- */
+/** Eigen-decomposition of a symmetric matrix (symmetrized as ½(A + Aᵀ) first); see eigen.ts. */
 export function symmetricEigen(A: Float64Array, n: number): SymmetricEigen {
-  const rows: number[][] = [];
-  for (let i = 0; i < n; i++) {
-    const r = new Array<number>(n);
-    for (let j = 0; j < n; j++) r[j] = i === j ? A[i * n + i] : 0.5 * (A[i * n + j] + A[j * n + i]);
-    rows.push(r);
-  }
-  const evd = new EigenvalueDecomposition(new Matrix(rows), { assumeSymmetric: true });
-  const vals = evd.realEigenvalues;
-  const V = evd.eigenvectorMatrix;
-  const order = Array.from({ length: n }, (_, k) => k).sort((a, b) => vals[a] - vals[b]);
-  const values = new Float64Array(n);
-  const vectors = new Float64Array(n * n);
-  order.forEach((k, c) => {
-    values[c] = vals[k];
-    for (let i = 0; i < n; i++) vectors[i * n + c] = V.get(i, k);
-  });
-  return { values, vectors };
+  return symmetricEigenFlat(A, n);
 }
 
 /** Largest |A_ij − B_ij|. */
