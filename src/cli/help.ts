@@ -65,8 +65,9 @@ Example:
 
 Recomputes every archived record (all versions, or those of the given ids) from its own
 archived spec with the current engine, and reports every number that moved beyond its
-tolerance (energies 1e-8 Eh, dipole and charges 1e-6 au). Exits non-zero on any difference.
-This is the reproducibility check a referee would ask for.
+tolerance (energies 1e-8 Eh, dipole and charges 1e-6 au). A record that did not converge
+is reproduced when the run again does not converge; its unconverged numbers are not compared.
+Exits non-zero on any difference. This is the reproducibility check a referee would ask for.
 
 Examples:
   fieldbook verify

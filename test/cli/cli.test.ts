@@ -89,6 +89,28 @@ describe("the fieldbook command", () => {
     expect(r.out).toMatch(/h2\/sto3g @ [0-9a-f]{12}: reproduced/);
   });
 
+  it("verifies a run that did not converge by its status, and reports a tampered number as moved", () => {
+    // plain iterations capped at 2 cannot meet the 1e-10 Eh default (common practice, no source)
+    writeFileSync(join(repo, "calculations", "h2", "capped.yaml"),
+      H2.replace("checks:", "convergence:\n  accelerator: none\n  max_iterations: 2\nchecks:").replace("title: Hydrogen molecule, minimal basis", "title: capped"));
+    expect(cli("compute", "--jobs", "1").code).toBe(0);
+    const capped = cli("verify", "h2/capped");
+    expect(capped.code).toBe(0);
+    expect(capped.out).toMatch(/h2\/capped @ [0-9a-f]{12}: reproduced \(not converged again/);
+    const dir = join(repo, "content", "records", "h2", "sto3g");
+    const file = join(dir, readdirSync(dir).find((f) => f.endsWith(".json"))!);
+    const original = readFileSync(file, "utf8");
+    const rec = JSON.parse(original);
+    rec.scf.energy += 1e-6;
+    writeFileSync(file, JSON.stringify(rec));
+    const moved = cli("verify", "h2/sto3g");
+    writeFileSync(file, original);
+    expect(moved.code).toBe(1);
+    expect(moved.out).toMatch(/h2\/sto3g @ [0-9a-f]{12}: MOVED\n  scf\.energy: archived/);
+    rmSync(join(repo, "calculations", "h2", "capped.yaml"));
+    rmSync(join(repo, "content", "records", "h2", "capped"), { recursive: true });
+  });
+
   it("starts a spec from an XYZ file and refuses to overwrite", () => {
     writeFileSync(join(repo, "water.xyz"), "3\nwater\nO 0 0 0.1173\nH 0 0.7572 -0.4692\nH 0 -0.7572 -0.4692\n");
     const r = cli("new", "water.xyz", "--out", "calculations/water.yaml");
