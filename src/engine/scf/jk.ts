@@ -61,6 +61,12 @@ export class JkBuilder {
   private chunks: Float64Array[] = [];
   /** per shell pair (engine pair index) the largest |D| element, refreshed per build */
   private pairDmax: Float64Array;
+  /** per shell pair: first functions and function counts of its shells, ½ when both are one shell */
+  private pA0: Int32Array;
+  private pB0: Int32Array;
+  private pNa: Int32Array;
+  private pNb: Int32Array;
+  private pHalf: Float64Array;
 
   constructor(basis: PreparedBasis, options: JkOptions = {}) {
     this.nbf = basis.nbf;
@@ -102,6 +108,11 @@ export class JkBuilder {
       }
     }
     this.pairDmax = new Float64Array(pairs.length);
+    this.pA0 = Int32Array.from(pairs, (P) => P.a.offset);
+    this.pB0 = Int32Array.from(pairs, (P) => P.b.offset);
+    this.pNa = Int32Array.from(pairs, (P) => P.a.nfunc);
+    this.pNb = Int32Array.from(pairs, (P) => P.b.nfunc);
+    this.pHalf = Float64Array.from(pairs, (P) => (P.ia === P.ib ? 0.5 : 1));
     const budget = options.memoryBytes ?? 4 * 1024 ** 3;
     const mode = options.mode ?? (doubles * 8 <= budget ? "in-core" : "direct");
     this.stats = { mode, storedBytes: 0, quartets: count, lastBuildQuartets: 0, integralSeconds: 0 };
@@ -181,6 +192,8 @@ export class JkBuilder {
     let built = 0;
     const qBra = this.qBra, qKet = this.qKet, qBound = this.qBound;
     const inCore = this.qChunk !== null;
+    const one = nd === 1 && wantK;
+    const D1 = densities[0], K1 = K[0];
     if (nd > 2) throw new Error("J/K builds take one or two densities");
     let pdAll = 0;
     for (let p = 0; p < pd.length; p++) if (pd[p] > pdAll) pdAll = pd[p];
@@ -197,6 +210,13 @@ export class JkBuilder {
       if (c3 > dmax) dmax = c3;
       if (bound * dmax < th) continue;
       built++;
+      if (one && inCore) {
+        // the RHF path on stored blocks: everything from typed arrays, no shell objects
+        const sc = this.pHalf[b] * this.pHalf[k] * (b === k ? 0.5 : 1);
+        digestOne(this.chunks[this.qChunk![q]], this.qOff![q], n, this.pA0[b], this.pB0[b], this.pA0[k], this.pB0[k],
+          this.pNa[b], this.pNb[b], this.pNa[k], this.pNb[k], sc, D1, J, K1);
+        continue;
+      }
       const P = pairs[b];
       const Q = pairs[k];
       let blk: Float64Array;
@@ -205,8 +225,11 @@ export class JkBuilder {
         blk = this.chunks[this.qChunk![q]];
         off = this.qOff![q];
       } else blk = this.engine.compute(P, Q);
-      if (nd === 1 && wantK) digestOne(P, Q, blk, off, this.nbf, densities[0], J, K[0]);
-      else this.digest(P, Q, blk, off, densities, Dt, J, K, nd, wantK);
+      if (one) {
+        const sc = this.pHalf[b] * this.pHalf[k] * (b === k ? 0.5 : 1);
+        digestOne(blk, off, n, this.pA0[b], this.pB0[b], this.pA0[k], this.pB0[k],
+          this.pNa[b], this.pNb[b], this.pNa[k], this.pNb[k], sc, D1, J, K1);
+      } else this.digest(P, Q, blk, off, densities, Dt, J, K, nd, wantK);
     }
     this.stats.lastBuildQuartets = built;
     finishSymmetric(J, n);
@@ -297,15 +320,11 @@ export class JkBuilder {
   }
 }
 
-/** digest() for one density with exchange (RHF), as a separate small function the JIT can keep tight. */
-function digestOne(P: ShellPair, Q: ShellPair, blk: Float64Array, off: number, n: number, D1: Float64Array, J: Float64Array, K1: Float64Array): void {
-  const A = P.a, B = P.b, C = Q.a, D = Q.b;
-  const na = A.nfunc, nb = B.nfunc, nc = C.nfunc, ndd = D.nfunc;
-  const a0 = A.offset, b0 = B.offset, c0 = C.offset, d0 = D.offset;
-  let s = 1;
-  if (P.ia === P.ib) s *= 0.5;
-  if (Q.ia === Q.ib) s *= 0.5;
-  if (P === Q) s *= 0.5;
+/** digest() for one density with exchange (RHF), from plain numbers (s: the block's symmetry scale), small enough for the JIT to keep tight. */
+function digestOne(
+  blk: Float64Array, off: number, n: number, a0: number, b0: number, c0: number, d0: number,
+  na: number, nb: number, nc: number, ndd: number, s: number, D1: Float64Array, J: Float64Array, K1: Float64Array,
+): void {
   const s2 = 2 * s;
   if (na * nb * nc * ndd === 1) {
     // (ss|ss), the most common block with hydrogen-rich molecules: no loops
@@ -321,6 +340,22 @@ function digestOne(P: ShellPair, Q: ShellPair, blk: Float64Array, off: number, n
   }
   if (ndd === 4) {
     digestOneD4(blk, off, n, na, nb, nc, a0, b0, c0, d0, s, D1, J, K1);
+    return;
+  }
+  if (ndd === 1) {
+    digestOneD1(blk, off, n, na, nb, nc, a0, b0, c0, d0, s, D1, J, K1);
+    return;
+  }
+  if (ndd === 6) {
+    digestOneD6(blk, off, n, na, nb, nc, a0, b0, c0, d0, s, D1, J, K1);
+    return;
+  }
+  if (ndd === 3) {
+    digestOneD3(blk, off, n, na, nb, nc, a0, b0, c0, d0, s, D1, J, K1);
+    return;
+  }
+  if (ndd === 5) {
+    digestOneD5(blk, off, n, na, nb, nc, a0, b0, c0, d0, s, D1, J, K1);
     return;
   }
   let k = off;
@@ -394,6 +429,165 @@ function digestOneD4(
       J[ia + b0 + b] += s2 * jab;
       K1[iad] += ka0; K1[iad + 1] += ka1; K1[iad + 2] += ka2; K1[iad + 3] += ka3;
       K1[ibd] += kb0; K1[ibd + 1] += kb1; K1[ibd + 2] += kb2; K1[ibd + 3] += kb3;
+    }
+  }
+}
+
+/** digestOneD4 for a last shell of one function (an s shell). */
+function digestOneD1(
+  blk: Float64Array, off: number, n: number, na: number, nb: number, nc: number,
+  a0: number, b0: number, c0: number, d0: number, s: number, D1: Float64Array, J: Float64Array, K1: Float64Array,
+): void {
+  const s2 = 2 * s;
+  let k = off;
+  for (let a = 0; a < na; a++) {
+    const ia = (a0 + a) * n;
+    const iad = ia + d0;
+    const pa0 = D1[iad];
+    for (let b = 0; b < nb; b++) {
+      const ib = (b0 + b) * n;
+      const ibd = ib + d0;
+      const pb0 = D1[ibd];
+      const dab = s2 * D1[ia + b0 + b];
+      let jab = 0;
+      let ka0 = 0, kb0 = 0;
+      for (let c = 0; c < nc; c++) {
+        const ic = (c0 + c) * n + d0;
+        const dbc = s * D1[ib + c0 + c], dac = s * D1[ia + c0 + c];
+        const v0 = blk[k];
+        jab += v0 * D1[ic];
+        J[ic] += v0 * dab;
+        K1[ia + c0 + c] += s * (v0 * pb0);
+        K1[ib + c0 + c] += s * (v0 * pa0);
+        ka0 += v0 * dbc;
+        kb0 += v0 * dac;
+        k += 1;
+      }
+      J[ia + b0 + b] += s2 * jab;
+      K1[iad] += ka0;
+      K1[ibd] += kb0;
+    }
+  }
+}
+
+/** digestOneD4 for a last shell of six functions (a Cartesian d shell). */
+function digestOneD6(
+  blk: Float64Array, off: number, n: number, na: number, nb: number, nc: number,
+  a0: number, b0: number, c0: number, d0: number, s: number, D1: Float64Array, J: Float64Array, K1: Float64Array,
+): void {
+  const s2 = 2 * s;
+  let k = off;
+  for (let a = 0; a < na; a++) {
+    const ia = (a0 + a) * n;
+    const iad = ia + d0;
+    const pa0 = D1[iad], pa1 = D1[iad + 1], pa2 = D1[iad + 2], pa3 = D1[iad + 3], pa4 = D1[iad + 4], pa5 = D1[iad + 5];
+    for (let b = 0; b < nb; b++) {
+      const ib = (b0 + b) * n;
+      const ibd = ib + d0;
+      const pb0 = D1[ibd], pb1 = D1[ibd + 1], pb2 = D1[ibd + 2], pb3 = D1[ibd + 3], pb4 = D1[ibd + 4], pb5 = D1[ibd + 5];
+      const dab = s2 * D1[ia + b0 + b];
+      let jab = 0;
+      let ka0 = 0, ka1 = 0, ka2 = 0, ka3 = 0, ka4 = 0, ka5 = 0, kb0 = 0, kb1 = 0, kb2 = 0, kb3 = 0, kb4 = 0, kb5 = 0;
+      for (let c = 0; c < nc; c++) {
+        const ic = (c0 + c) * n + d0;
+        const dbc = s * D1[ib + c0 + c], dac = s * D1[ia + c0 + c];
+        const v0 = blk[k], v1 = blk[k + 1], v2 = blk[k + 2], v3 = blk[k + 3], v4 = blk[k + 4], v5 = blk[k + 5];
+        jab += v0 * D1[ic] + v1 * D1[ic + 1] + v2 * D1[ic + 2] + v3 * D1[ic + 3] + v4 * D1[ic + 4] + v5 * D1[ic + 5];
+        J[ic] += v0 * dab;
+        J[ic + 1] += v1 * dab;
+        J[ic + 2] += v2 * dab;
+        J[ic + 3] += v3 * dab;
+        J[ic + 4] += v4 * dab;
+        J[ic + 5] += v5 * dab;
+        K1[ia + c0 + c] += s * (v0 * pb0 + v1 * pb1 + v2 * pb2 + v3 * pb3 + v4 * pb4 + v5 * pb5);
+        K1[ib + c0 + c] += s * (v0 * pa0 + v1 * pa1 + v2 * pa2 + v3 * pa3 + v4 * pa4 + v5 * pa5);
+        ka0 += v0 * dbc; ka1 += v1 * dbc; ka2 += v2 * dbc; ka3 += v3 * dbc; ka4 += v4 * dbc; ka5 += v5 * dbc;
+        kb0 += v0 * dac; kb1 += v1 * dac; kb2 += v2 * dac; kb3 += v3 * dac; kb4 += v4 * dac; kb5 += v5 * dac;
+        k += 6;
+      }
+      J[ia + b0 + b] += s2 * jab;
+      K1[iad] += ka0; K1[iad + 1] += ka1; K1[iad + 2] += ka2; K1[iad + 3] += ka3; K1[iad + 4] += ka4; K1[iad + 5] += ka5;
+      K1[ibd] += kb0; K1[ibd + 1] += kb1; K1[ibd + 2] += kb2; K1[ibd + 3] += kb3; K1[ibd + 4] += kb4; K1[ibd + 5] += kb5;
+    }
+  }
+}
+
+/** digestOneD4 for a last shell of three functions (a p shell). */
+function digestOneD3(
+  blk: Float64Array, off: number, n: number, na: number, nb: number, nc: number,
+  a0: number, b0: number, c0: number, d0: number, s: number, D1: Float64Array, J: Float64Array, K1: Float64Array,
+): void {
+  const s2 = 2 * s;
+  let k = off;
+  for (let a = 0; a < na; a++) {
+    const ia = (a0 + a) * n;
+    const iad = ia + d0;
+    const pa0 = D1[iad], pa1 = D1[iad + 1], pa2 = D1[iad + 2];
+    for (let b = 0; b < nb; b++) {
+      const ib = (b0 + b) * n;
+      const ibd = ib + d0;
+      const pb0 = D1[ibd], pb1 = D1[ibd + 1], pb2 = D1[ibd + 2];
+      const dab = s2 * D1[ia + b0 + b];
+      let jab = 0;
+      let ka0 = 0, ka1 = 0, ka2 = 0, kb0 = 0, kb1 = 0, kb2 = 0;
+      for (let c = 0; c < nc; c++) {
+        const ic = (c0 + c) * n + d0;
+        const dbc = s * D1[ib + c0 + c], dac = s * D1[ia + c0 + c];
+        const v0 = blk[k], v1 = blk[k + 1], v2 = blk[k + 2];
+        jab += v0 * D1[ic] + v1 * D1[ic + 1] + v2 * D1[ic + 2];
+        J[ic] += v0 * dab;
+        J[ic + 1] += v1 * dab;
+        J[ic + 2] += v2 * dab;
+        K1[ia + c0 + c] += s * (v0 * pb0 + v1 * pb1 + v2 * pb2);
+        K1[ib + c0 + c] += s * (v0 * pa0 + v1 * pa1 + v2 * pa2);
+        ka0 += v0 * dbc; ka1 += v1 * dbc; ka2 += v2 * dbc;
+        kb0 += v0 * dac; kb1 += v1 * dac; kb2 += v2 * dac;
+        k += 3;
+      }
+      J[ia + b0 + b] += s2 * jab;
+      K1[iad] += ka0; K1[iad + 1] += ka1; K1[iad + 2] += ka2;
+      K1[ibd] += kb0; K1[ibd + 1] += kb1; K1[ibd + 2] += kb2;
+    }
+  }
+}
+
+/** digestOneD4 for a last shell of five functions (a spherical d shell). */
+function digestOneD5(
+  blk: Float64Array, off: number, n: number, na: number, nb: number, nc: number,
+  a0: number, b0: number, c0: number, d0: number, s: number, D1: Float64Array, J: Float64Array, K1: Float64Array,
+): void {
+  const s2 = 2 * s;
+  let k = off;
+  for (let a = 0; a < na; a++) {
+    const ia = (a0 + a) * n;
+    const iad = ia + d0;
+    const pa0 = D1[iad], pa1 = D1[iad + 1], pa2 = D1[iad + 2], pa3 = D1[iad + 3], pa4 = D1[iad + 4];
+    for (let b = 0; b < nb; b++) {
+      const ib = (b0 + b) * n;
+      const ibd = ib + d0;
+      const pb0 = D1[ibd], pb1 = D1[ibd + 1], pb2 = D1[ibd + 2], pb3 = D1[ibd + 3], pb4 = D1[ibd + 4];
+      const dab = s2 * D1[ia + b0 + b];
+      let jab = 0;
+      let ka0 = 0, ka1 = 0, ka2 = 0, ka3 = 0, ka4 = 0, kb0 = 0, kb1 = 0, kb2 = 0, kb3 = 0, kb4 = 0;
+      for (let c = 0; c < nc; c++) {
+        const ic = (c0 + c) * n + d0;
+        const dbc = s * D1[ib + c0 + c], dac = s * D1[ia + c0 + c];
+        const v0 = blk[k], v1 = blk[k + 1], v2 = blk[k + 2], v3 = blk[k + 3], v4 = blk[k + 4];
+        jab += v0 * D1[ic] + v1 * D1[ic + 1] + v2 * D1[ic + 2] + v3 * D1[ic + 3] + v4 * D1[ic + 4];
+        J[ic] += v0 * dab;
+        J[ic + 1] += v1 * dab;
+        J[ic + 2] += v2 * dab;
+        J[ic + 3] += v3 * dab;
+        J[ic + 4] += v4 * dab;
+        K1[ia + c0 + c] += s * (v0 * pb0 + v1 * pb1 + v2 * pb2 + v3 * pb3 + v4 * pb4);
+        K1[ib + c0 + c] += s * (v0 * pa0 + v1 * pa1 + v2 * pa2 + v3 * pa3 + v4 * pa4);
+        ka0 += v0 * dbc; ka1 += v1 * dbc; ka2 += v2 * dbc; ka3 += v3 * dbc; ka4 += v4 * dbc;
+        kb0 += v0 * dac; kb1 += v1 * dac; kb2 += v2 * dac; kb3 += v3 * dac; kb4 += v4 * dac;
+        k += 5;
+      }
+      J[ia + b0 + b] += s2 * jab;
+      K1[iad] += ka0; K1[iad + 1] += ka1; K1[iad + 2] += ka2; K1[iad + 3] += ka3; K1[iad + 4] += ka4;
+      K1[ibd] += kb0; K1[ibd + 1] += kb1; K1[ibd + 2] += kb2; K1[ibd + 3] += kb3; K1[ibd + 4] += kb4;
     }
   }
 }
