@@ -289,6 +289,10 @@ export function runScf(
         break;
       }
       forceFull = true; // confirm on a full build
+    } else if (it > 1 && Math.abs(dE) < 10 * o.energy && drms < 10 * o.density) {
+      // within 10× of both criteria the next iteration is likely the last: build it in full,
+      // so it can be accepted at once instead of after one more, confirming, iteration
+      forceFull = true;
     }
     Dprev = [Da, Db];
     Eprev = energy;
