@@ -75,10 +75,11 @@ function fittedFactors(
   const M = new Float64Array(n * n);
   const Z = new Float64Array(no * n);
   const R = new Float64Array(no * nv);
+  const npair = (n * (n + 1)) / 2;
   for (let P = 0; P < naux; P++) {
-    for (let l = 0, p = 0; l < n; l++)
+    for (let l = 0, p = P * npair; l < n; l++)
       for (let s = 0; s <= l; s++, p++) {
-        const v = A3[p * naux + P];
+        const v = A3[p];
         M[l * n + s] = v;
         M[s * n + l] = v;
       }
@@ -142,7 +143,8 @@ export function riMp2Energy(scf: ScfResult, options: RiMp2Options): RiMp2Energie
   const auxPairs = auxIdx.map((k) => engine.pair(k, unit));
   const auxBound = auxPairs.map(bound);
   const auxMax = Math.max(...auxBound);
-  // (μν|P), μ ≥ ν packed: A3[pair · naux + P]
+  // (μν|P), μ ≥ ν packed, fitting-major (A3[P · npair + pair]) so that the transformation
+  // below reads each P's slice contiguously
   const A3 = new Float64Array(npair * naux);
   for (let x = 0; x < orbIdx.length; x++)
     for (let y = 0; y <= x; y++) {
@@ -157,7 +159,7 @@ export function riMp2Energy(scf: ScfResult, options: RiMp2Options): RiMp2Energie
         let t = 0;
         for (let a = 0; a < A.nfunc; a++)
           for (let b = 0; b < B.nfunc; b++)
-            for (let f = 0; f < F.nfunc; f++, t++) A3[pk(A.offset + a, B.offset + b) * naux + F.offset - A0 + f] = blk[t];
+            for (let f = 0; f < F.nfunc; f++, t++) A3[(F.offset - A0 + f) * npair + pk(A.offset + a, B.offset + b)] = blk[t];
       }
     }
   // metric (P|Q)
