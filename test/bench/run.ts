@@ -242,10 +242,7 @@ function main() {
       ex: { seconds: number; correlation: number; peak: number };
       ri: { seconds: number; correlation: number; peak: number; fittingFunctions: number } };
     const m = measureInChild<Mp2Pass>("mp2", c, opt.repeat);
-    const { scfSeconds, ri } = m;
-    const ex = { ...m.ex, e: { correlation: m.ex.correlation } };
-    const riE = { correlation: ri.correlation, fitting_functions: ri.fittingFunctions };
-    const basis = { nbf: m.nbf };
+    const { scfSeconds, ex, ri } = m;
     let nat: NativeScf | undefined;
     if (native) {
       for (let k = 0; k < opt.repeat; k++) {
@@ -255,14 +252,14 @@ function main() {
     }
     const natMp2 = nat?.seconds.mp2;
     const natCorr = nat?.mp2.frozenCore?.eCorr;
-    mp2Results.push({ case: name, nbf: basis.nbf, fitting: c.fitting, scfSeconds,
-      exact: { seconds: ex.seconds, correlation: ex.e.correlation, peakBytes: ex.peak },
-      ri: { seconds: ri.seconds, correlation: riE.correlation, error: riE.correlation - ex.e.correlation, peakBytes: ri.peak, fittingFunctions: riE.fitting_functions },
+    mp2Results.push({ case: name, nbf: m.nbf, fitting: c.fitting, scfSeconds,
+      exact: { seconds: ex.seconds, correlation: ex.correlation, peakBytes: ex.peak },
+      ri: { seconds: ri.seconds, correlation: ri.correlation, error: ri.correlation - ex.correlation, peakBytes: ri.peak, fittingFunctions: ri.fittingFunctions },
       native: nat ? { mp2Seconds: natMp2, totalSeconds: nat.seconds.total, correlation: natCorr } : null,
       ratios: natMp2 ? { exact: ex.seconds / natMp2, ri: ri.seconds / natMp2, wholeRi: (scfSeconds + ri.seconds) / nat!.seconds.total } : null,
       targets: MP2_TARGETS });
-    mp2Rows.push(`| ${name} | ${basis.nbf} | ${ex.e.correlation.toFixed(10)} | ${fmt(ex.seconds)} | ${(ex.peak / 2 ** 20).toFixed(1)} | ` +
-      `${riE.fitting_functions} | ${(riE.correlation - ex.e.correlation).toExponential(2)} | ${fmt(ri.seconds)} | ${(ri.peak / 2 ** 20).toFixed(1)} | ` +
+    mp2Rows.push(`| ${name} | ${m.nbf} | ${ex.correlation.toFixed(10)} | ${fmt(ex.seconds)} | ${(ex.peak / 2 ** 20).toFixed(1)} | ` +
+      `${ri.fittingFunctions} | ${(ri.correlation - ex.correlation).toExponential(2)} | ${fmt(ri.seconds)} | ${(ri.peak / 2 ** 20).toFixed(1)} | ` +
       `${natCorr !== undefined ? natCorr.toFixed(10) : "–"} | ${fmt(natMp2)} | ${natMp2 ? fmt(ex.seconds / natMp2, 2) : "–"} | ${natMp2 ? fmt(ri.seconds / natMp2, 2) : "–"} | ` +
       `${nat ? fmt(scfSeconds + ri.seconds, 2) + " / " + fmt(nat.seconds.total, 2) : "–"} |`);
     console.log(mp2Rows[mp2Rows.length - 1]);

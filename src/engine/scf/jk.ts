@@ -210,26 +210,18 @@ export class JkBuilder {
       if (c3 > dmax) dmax = c3;
       if (bound * dmax < th) continue;
       built++;
-      if (one && inCore) {
-        // the RHF path on stored blocks: everything from typed arrays, no shell objects
-        const sc = this.pHalf[b] * this.pHalf[k] * (b === k ? 0.5 : 1);
-        digestOne(this.chunks[this.qChunk![q]], this.qOff![q], n, this.pA0[b], this.pB0[b], this.pA0[k], this.pB0[k],
-          this.pNa[b], this.pNb[b], this.pNa[k], this.pNb[k], sc, D1, J, K1);
-        continue;
-      }
-      const P = pairs[b];
-      const Q = pairs[k];
       let blk: Float64Array;
       let off = 0;
       if (inCore) {
         blk = this.chunks[this.qChunk![q]];
         off = this.qOff![q];
-      } else blk = this.engine.compute(P, Q);
+      } else blk = this.engine.compute(pairs[b], pairs[k]);
       if (one) {
+        // the RHF path: shell data from typed arrays, no shell objects
         const sc = this.pHalf[b] * this.pHalf[k] * (b === k ? 0.5 : 1);
         digestOne(blk, off, n, this.pA0[b], this.pB0[b], this.pA0[k], this.pB0[k],
           this.pNa[b], this.pNb[b], this.pNa[k], this.pNb[k], sc, D1, J, K1);
-      } else this.digest(P, Q, blk, off, densities, Dt, J, K, nd, wantK);
+      } else this.digest(pairs[b], pairs[k], blk, off, densities, Dt, J, K, nd, wantK);
     }
     this.stats.lastBuildQuartets = built;
     finishSymmetric(J, n);
@@ -338,24 +330,9 @@ function digestOne(
     K1[ib + d0] += v * D1[ia + c0];
     return;
   }
-  if (ndd === 4) {
-    digestOneD4(blk, off, n, na, nb, nc, a0, b0, c0, d0, s, D1, J, K1);
-    return;
-  }
-  if (ndd === 1) {
-    digestOneD1(blk, off, n, na, nb, nc, a0, b0, c0, d0, s, D1, J, K1);
-    return;
-  }
-  if (ndd === 6) {
-    digestOneD6(blk, off, n, na, nb, nc, a0, b0, c0, d0, s, D1, J, K1);
-    return;
-  }
-  if (ndd === 3) {
-    digestOneD3(blk, off, n, na, nb, nc, a0, b0, c0, d0, s, D1, J, K1);
-    return;
-  }
-  if (ndd === 5) {
-    digestOneD5(blk, off, n, na, nb, nc, a0, b0, c0, d0, s, D1, J, K1);
+  const unrolled = UNROLLED[ndd];
+  if (unrolled !== undefined) {
+    unrolled(blk, off, n, na, nb, nc, a0, b0, c0, d0, s, D1, J, K1);
     return;
   }
   let k = off;
@@ -591,6 +568,9 @@ function digestOneD5(
     }
   }
 }
+
+/** The unrolled digestOne kernels by the last shell's function count. */
+const UNROLLED: (typeof digestOneD4 | undefined)[] = [undefined, digestOneD1, undefined, digestOneD3, digestOneD4, digestOneD5, digestOneD6];
 
 /** M ← M + Mᵀ. */
 function finishSymmetric(M: Float64Array, n: number): void {

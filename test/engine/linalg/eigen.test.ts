@@ -1,22 +1,12 @@
 // The typed-array symmetric eigensolver: exact eigenvalues of the tridiagonal Toeplitz matrix
 // tridiag(−1, 2, −1), λ_k = 2 − 2 cos(kπ/(n+1)) (a standard closed form, e.g. G. D. Smith,
-// Numerical Solution of Partial Differential Equations, 3rd ed. (1985), ch. 2), residuals and
-// orthonormality on random and degenerate matrices, and agreement with ml-matrix's
-// independent implementation.
+// Numerical Solution of Partial Differential Equations, 3rd ed. (1985), ch. 2; chapter from
+// memory); residuals and orthonormality on random and degenerate matrices; agreement with
+// ml-matrix's independent implementation.
 import { EigenvalueDecomposition, Matrix } from "ml-matrix";
 import { describe, expect, it } from "vitest";
 import { symmetricEigenFlat } from "../../../src/engine/linalg/eigen.ts";
-
-function randomSymmetric(n: number, seed: number): Float64Array {
-  const A = new Float64Array(n * n);
-  let x = seed;
-  for (let i = 0; i < n; i++)
-    for (let j = 0; j <= i; j++) {
-      x = (x * 1103515245 + 12345) % 2147483648;
-      A[i * n + j] = A[j * n + i] = x / 2147483648 - 0.5;
-    }
-  return A;
-}
+import { randomSymmetric } from "./helpers.ts";
 
 function check(A: Float64Array, n: number) {
   const { values, vectors: V } = symmetricEigenFlat(A, n);

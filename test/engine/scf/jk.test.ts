@@ -6,6 +6,7 @@
 import { describe, expect, it } from "vitest";
 import { EriEngine } from "../../../src/engine/integrals/eri.ts";
 import { JkBuilder } from "../../../src/engine/scf/jk.ts";
+import { randomSymmetric } from "../linalg/helpers.ts";
 import { atomsBohr, scfProblem } from "./helpers.ts";
 
 function fullTensor(engine: EriEngine, n: number): Float64Array {
@@ -46,27 +47,13 @@ function reference(g: Float64Array, D: Float64Array, n: number) {
   return { J, K };
 }
 
-/** A symmetric matrix with entries of both signs (deterministic). */
-function density(n: number, seed: number): Float64Array {
-  const D = new Float64Array(n * n);
-  let x = seed;
-  for (let i = 0; i < n; i++)
-    for (let j = 0; j <= i; j++) {
-      x = (x * 1103515245 + 12345) % 2147483648;
-      const v = x / 2147483648 - 0.5;
-      D[i * n + j] = v;
-      D[j * n + i] = v;
-    }
-  return D;
-}
-
 function maxDiff(a: Float64Array, b: Float64Array): number {
   let m = 0;
   for (let k = 0; k < a.length; k++) m = Math.max(m, Math.abs(a[k] - b[k]));
   return m;
 }
 
-// methane-like CH3F fragment in 6-31G* (sp shells of 4, Cartesian d of 6, H s of 1) and water in
+// CH2F2 in 6-31G* (sp shells of 4, Cartesian d of 6, H s of 1) and water in
 // cc-pVDZ (p of 3, spherical d of 5): every digestion path meets several shapes
 const cases = [
   { name: "CH2F2 6-31G*", atoms: atomsBohr([["C", 0, 0, 0], ["F", 0, 0, 2.6], ["F", 2.4, 0, -0.9], ["H", -1.0, 1.7, -0.6], ["H", -1.0, -1.7, -0.6]]), basis: "6-31G*" },
@@ -81,7 +68,7 @@ describe("J/K digestion equals the defining sums over the full tensor", () => {
       // threshold 0: nothing screened, so the comparison is exact up to rounding
       const jk = new JkBuilder(basis, { threshold: 0 });
       const g = fullTensor(jk.engine, n);
-      const D1 = density(n, 7), D2 = density(n, 11);
+      const D1 = randomSymmetric(n, 7), D2 = randomSymmetric(n, 11);
       const r1 = reference(g, D1, n), r2 = reference(g, D2, n);
       const scale = Math.max(...r1.J.map(Math.abs));
       const tol = 1e-13 * scale;
