@@ -80,13 +80,14 @@ function recurrenceLines(cls: EriClass, name: (idx: number) => string): string[]
  * recurrences, and accumulation. One call per bra primitive pair instead of several calls
  * per primitive quartet, and every call site inside is monomorphic.
  *
- * bp = [p, K_ab, Px, Py, Pz, PAx, PAy, PAz, Cx, Cy, Cz] (C: the ket's first centre).
+ * bp = [p, K_ab, Px, Py, Pz, PAx, PAy, PAz, Cx, Cy, Cz, lim] (C: the ket's first centre).
+ * Primitive quartets with kb[j] / √(p+q) < lim are skipped (lim = cutoff / bra bound; 0 keeps all).
  * Segmented ket (`segmented`): out[k] += block. Otherwise, for each combo c of ket primitive
  * pair j, with row r = kRow[c] of kind rowKind[r]: out[r · blk + e · fs + f] += coef_c ·
  * block[e][f0 + f] over the kind's f slice (f0, fs).
  */
 export type KetLoop = (
-  bp: Float64Array, nk: number, kp: Float64Array, kpc: Float64Array, kk: Float64Array,
+  bp: Float64Array, nk: number, kp: Float64Array, kpc: Float64Array, kk: Float64Array, kb: Float64Array,
   kStart: Int32Array, kRow: Int32Array, kCoef: Float64Array, rowKind: Int32Array, out: Float64Array,
 ) => void;
 
@@ -97,14 +98,16 @@ export function generateKetLoop(cls: EriClass, segmented: boolean): KetLoop | nu
   const name = (idx: number) => `v${idx}`;
   const src: string[] = [];
   src.push("const p = bp[0], kab = bp[1], Px = bp[2], Py = bp[3], Pz = bp[4];");
-  src.push("const pax = bp[5], pay = bp[6], paz = bp[7], Cx = bp[8], Cy = bp[9], Cz = bp[10];");
+  src.push("const pax = bp[5], pay = bp[6], paz = bp[7], Cx = bp[8], Cy = bp[9], Cz = bp[10], lim = bp[11];");
   src.push("const h2p = 0.5 / p;");
   src.push("for (let j = 0; j < nk; j++) {");
-  src.push("const q = kp[j], Qx = kpc[3 * j], Qy = kpc[3 * j + 1], Qz = kpc[3 * j + 2];");
-  src.push("const ipq = 1 / (p + q), rho = p * q * ipq;");
+  src.push("const q = kp[j];");
+  src.push("const ipq = 1 / (p + q), sq = Math.sqrt(ipq);");
+  src.push("if (kb[j] * sq < lim) continue;");
+  src.push("const Qx = kpc[3 * j], Qy = kpc[3 * j + 1], Qz = kpc[3 * j + 2], rho = p * q * ipq;");
   src.push("const dx = Px - Qx, dy = Py - Qy, dz = Pz - Qz;");
   src.push("const T = rho * (dx * dx + dy * dy + dz * dz);");
-  src.push("const pref = kab * kk[j] * Math.sqrt(ipq);");
+  src.push("const pref = kab * kk[j] * sq;");
   // Boys F_0..F_L, as boys.ts evaluates it
   for (let m = 0; m <= L; m++) src.push(`let f${m};`);
   src.push(`if (T < ${B.tTable}) {`);
@@ -150,6 +153,6 @@ export function generateKetLoop(cls: EriClass, segmented: boolean): KetLoop | nu
     src.push("}");
   }
   src.push("}");
-  const f = new Function("grid", `return function ketLoop(bp, nk, kp, kpc, kk, kStart, kRow, kCoef, rowKind, out) {\n${src.join("\n")}\n};`);
+  const f = new Function("grid", `return function ketLoop(bp, nk, kp, kpc, kk, kb, kStart, kRow, kCoef, rowKind, out) {\n${src.join("\n")}\n};`);
   return f(B.grid) as KetLoop;
 }

@@ -108,7 +108,14 @@ export class EriEngine {
   private maxRows: number;
   private sized = new Set<EriClass>();
   private loops = [new Map<EriClass, KetLoop | null>(), new Map<EriClass, KetLoop | null>()];
-  private bp = new Float64Array(11);
+  private bp = new Float64Array(12);
+  /**
+   * Skip a quartet's primitive quartets whose estimated share (shell-pairs.ts `bound`) is below
+   * this divided by their number, so what is skipped adds up to less than about this in any
+   * integral. 0 (the default) computes every primitive quartet; the SCF sets it a tenth of its
+   * quartet threshold.
+   */
+  primitiveCutoff = 0;
   /** where compute() writes its block in the destination array */
   private outOff = 0;
   private par = new Float64Array(17);
@@ -245,12 +252,19 @@ export class EriEngine {
     const n = ket.nrows * blk;
     const bp = this.bp;
     bp[8] = ket.a.x; bp[9] = ket.a.y; bp[10] = ket.a.z;
+    // shared out over the primitive quartets, so that together they stay below the cutoff
+    const cut = this.primitiveCutoff / (bra.nprim * ket.nprim);
+    const ketMax = ket.maxBound, ketMinP = ket.minP;
     for (let i = 0; i < bra.nprim; i++) {
+      const bb = bra.bound[i];
+      // no ket primitive pair can reach the cutoff with this bra pair
+      if (bb * ketMax < cut * Math.sqrt(bra.p[i] + ketMinP)) continue;
+      bp[11] = cut / bb;
       bp[0] = bra.p[i]; bp[1] = bra.k[i];
       bp[2] = bra.pc[3 * i]; bp[3] = bra.pc[3 * i + 1]; bp[4] = bra.pc[3 * i + 2];
       bp[5] = bra.pa[3 * i]; bp[6] = bra.pa[3 * i + 1]; bp[7] = bra.pa[3 * i + 2];
       if (!bothSegmented) target.fill(0, 0, n);
-      loop(bp, ket.nprim, ket.p, ket.pc, ket.k, ket.comboStart, ket.comboRow, ket.comboCoef, ket.rowKind, target);
+      loop(bp, ket.nprim, ket.p, ket.pc, ket.k, ket.bound, ket.comboStart, ket.comboRow, ket.comboCoef, ket.rowKind, target);
       if (!bothSegmented) this.braCombos(cls, bra, ket, i, blk);
     }
   }
@@ -270,9 +284,12 @@ export class EriEngine {
     const kStart = ket.comboStart, kRow = ket.comboRow, kCoef = ket.comboCoef;
     const target = bothSegmented ? this.acc : tmp;
     const par = this.par;
+    const cut = this.primitiveCutoff / (bra.nprim * ket.nprim);
+    const kb = ket.bound;
     for (let i = 0; i < bra.nprim; i++) {
       const p = bra.p[i];
       const kab = bra.k[i];
+      const lim = cut / bra.bound[i];
       const Px = bra.pc[3 * i], Py = bra.pc[3 * i + 1], Pz = bra.pc[3 * i + 2];
       const pax = bra.pa[3 * i], pay = bra.pa[3 * i + 1], paz = bra.pa[3 * i + 2];
       if (!bothSegmented) tmp.fill(0, 0, ket.nrows * blk);
@@ -281,6 +298,7 @@ export class EriEngine {
         const Qx = kpc[3 * j], Qy = kpc[3 * j + 1], Qz = kpc[3 * j + 2];
         const pq = p + q;
         const ipq = 1 / pq;
+        if (kb[j] * Math.sqrt(ipq) < lim) continue;
         const rho = p * q * ipq;
         const dx = Px - Qx, dy = Py - Qy, dz = Pz - Qz;
         const pref = kab * kk[j] * Math.sqrt(ipq);

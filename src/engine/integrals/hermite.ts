@@ -15,7 +15,6 @@ export class HermiteWork {
   ez: Float64Array;
   /** R^n_{tuv} for all n: rn[((n * N + t) * N + u) * N + v], N = lmax + 1 */
   rn: Float64Array;
-  r0: Float64Array;
   f: Float64Array;
   constructor(lmax: number) {
     this.lmax = lmax;
@@ -25,7 +24,6 @@ export class HermiteWork {
     this.ey = new Float64Array(this.ex.length);
     this.ez = new Float64Array(this.ex.length);
     this.rn = new Float64Array(n * n * n * n);
-    this.r0 = new Float64Array(n * n * n);
     this.f = new Float64Array(n + 1);
   }
 }
@@ -63,7 +61,8 @@ export function hermiteE(la: number, lb: number, a: number, b: number, xab: numb
 }
 
 /**
- * R^0_{tuv}(p, PC) for t+u+v ≤ L into w.r0[(t*N + u)*N + v], N = w.lmax + 1. Returns w.r0.
+ * R^0_{tuv}(p, PC) for t+u+v ≤ L; returns w.rn, which holds it at [(t*N + u)*N + v],
+ * N = w.lmax + 1 (the n = 0 block; entries beyond it are intermediates).
  */
 export function hermiteR(L: number, p: number, xpc: number, ypc: number, zpc: number, w: HermiteWork): Float64Array {
   const N = w.lmax + 1;
@@ -99,7 +98,5 @@ export function hermiteR(L: number, p: number, xpc: number, ypc: number, zpc: nu
       }
     }
   }
-  const r0 = w.r0;
-  for (let i = 0; i < N * N * N; i++) r0[i] = rn[i];
-  return r0;
+  return rn; // its n = 0 block comes first
 }

@@ -137,36 +137,43 @@ export function nuclearAttractionMatrix(basis: PreparedBasis, charges: readonly 
   const NR = work.lmax + 1;
   return pairMatrices(basis, 1, (a, sa, b, sb, out) => {
     const p = a + b;
-    const P = [(a * sa.x + b * sb.x) / p, (a * sa.y + b * sb.y) / p, (a * sa.z + b * sb.z) / p];
     const L = sa.l + sb.l;
-    const ex = hermiteE(sa.l, sb.l, a, b, sa.x - sb.x, work.ex);
-    const ey = hermiteE(sa.l, sb.l, a, b, sa.y - sb.y, work.ey);
-    const ez = hermiteE(sa.l, sb.l, a, b, sa.z - sb.z, work.ez);
-    const nt = L + 1;
     const blk = ncart(sa.l) * ncart(sb.l);
     out.fill(0, 0, blk);
+    const abx = sa.x - sb.x, aby = sa.y - sb.y, abz = sa.z - sb.z;
+    const px = (a * sa.x + b * sb.x) / p, py = (a * sa.y + b * sb.y) / p, pz = (a * sa.z + b * sb.z) / p;
+    const ex = hermiteE(sa.l, sb.l, a, b, abx, work.ex);
+    const ey = hermiteE(sa.l, sb.l, a, b, aby, work.ey);
+    const ez = hermiteE(sa.l, sb.l, a, b, abz, work.ez);
+    const nt = L + 1;
     const eStride = (sb.l + 1) * nt; // E[i][j][t] at i*eStride + j*nt + t
+    const oa = cumStart(sa.l), ob = cumStart(sb.l);
+    const na = ncart(sa.l), nb = ncart(sb.l);
     for (const c of charges) {
-      const R = hermiteR(L, p, P[0] - c.x, P[1] - c.y, P[2] - c.z, work);
+      const R = hermiteR(L, p, px - c.x, py - c.y, pz - c.z, work);
       const pref = (-c.charge * 2 * Math.PI) / p;
-      forComponents(sa, sb, pow, (k, ia, ib) => {
-        const ox = pow[ia] * eStride + pow[ib] * nt;
-        const oy = pow[ia + 1] * eStride + pow[ib + 1] * nt;
-        const oz = pow[ia + 2] * eStride + pow[ib + 2] * nt;
-        const tx = pow[ia] + pow[ib], ty = pow[ia + 1] + pow[ib + 1], tz = pow[ia + 2] + pow[ib + 2];
-        let s = 0;
-        for (let t = 0; t <= tx; t++) {
-          const et = ex[ox + t];
-          if (et === 0) continue;
-          for (let u = 0; u <= ty; u++) {
-            const eu = et * ey[oy + u];
-            if (eu === 0) continue;
-            const base = (t * NR + u) * NR;
-            for (let v = 0; v <= tz; v++) s += eu * ez[oz + v] * R[base + v];
+      for (let ca = 0; ca < na; ca++) {
+        const ia = 3 * (oa + ca);
+        for (let cb = 0; cb < nb; cb++) {
+          const ib = 3 * (ob + cb);
+          const ox = pow[ia] * eStride + pow[ib] * nt;
+          const oy = pow[ia + 1] * eStride + pow[ib + 1] * nt;
+          const oz = pow[ia + 2] * eStride + pow[ib + 2] * nt;
+          const tx = pow[ia] + pow[ib], ty = pow[ia + 1] + pow[ib + 1], tz = pow[ia + 2] + pow[ib + 2];
+          let s = 0;
+          for (let t = 0; t <= tx; t++) {
+            const et = ex[ox + t];
+            if (et === 0) continue;
+            for (let u = 0; u <= ty; u++) {
+              const eu = et * ey[oy + u];
+              if (eu === 0) continue;
+              const base = (t * NR + u) * NR;
+              for (let v = 0; v <= tz; v++) s += eu * ez[oz + v] * R[base + v];
+            }
           }
+          out[ca * nb + cb] += pref * s;
         }
-        out[k] += pref * s;
-      });
+      }
     }
   })[0];
 }

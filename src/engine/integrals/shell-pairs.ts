@@ -31,6 +31,16 @@ export interface ShellPair {
   pc: Float64Array;
   /** √2 π^{5/4} exp(−μ R_AB²) / p, times the contraction coefficients when `segmented` */
   k: Float64Array;
+  /**
+   * Size estimate of each primitive pair's share: |k| times the largest contraction
+   * coefficient product times (|PA| + 1/√p)^la (|PB| + 1/√p)^lb (at least 1 each), the reach
+   * of the polynomial factors. A primitive quartet contributes about bound_ab · bound_cd /
+   * √(p+q) at most ([00|00] with F_0 ≤ 1 is exactly that without the polynomial factors).
+   */
+  bound: Float64Array;
+  /** the largest bound and the smallest p over the primitive pairs */
+  maxBound: number;
+  minP: number;
   /** A − B (a typed array, so passing it on boxes no number) */
   ab: Float64Array;
   /** rows of the pair = a.ncontr × b.ncontr, row index ra·b.ncontr + rb */
@@ -75,6 +85,7 @@ export function makeShellPair(s1: PreparedShell, i1: number, s2: PreparedShell, 
   const pa: number[] = [];
   const pc: number[] = [];
   const k: number[] = [];
+  const bound: number[] = [];
   const comboStart: number[] = [0];
   const comboRow: number[] = [];
   const comboCoef: number[] = [];
@@ -98,6 +109,11 @@ export function makeShellPair(s1: PreparedShell, i1: number, s2: PreparedShell, 
       pa.push(Px - a.x, Py - a.y, Pz - a.z);
       pc.push(Px, Py, Pz);
       let kk = (PAIR_PREFACTOR * ex) / pp;
+      // the polynomial parts x_A^la x_B^lb over a Gaussian of width 1/√p centred at P
+      const w = 1 / Math.sqrt(pp);
+      const fa = Math.max(1, (Math.hypot(Px - a.x, Py - a.y, Pz - a.z) + w) ** a.l);
+      const fb = Math.max(1, (Math.hypot(Px - b.x, Py - b.y, Pz - b.z) + w) ** b.l);
+      bound.push(Math.abs(kk) * cmax * fa * fb);
       if (segmented) kk *= a.coef[i] * b.coef[j];
       else {
         for (let ra = 0; ra < a.ncontr; ra++) {
@@ -126,6 +142,9 @@ export function makeShellPair(s1: PreparedShell, i1: number, s2: PreparedShell, 
     pa: Float64Array.from(pa),
     pc: Float64Array.from(pc),
     k: Float64Array.from(k),
+    bound: Float64Array.from(bound),
+    maxBound: bound.reduce((m, x) => Math.max(m, x), 0),
+    minP: p.reduce((m, x) => Math.min(m, x), Infinity),
     ab: Float64Array.of(abx, aby, abz),
     nrows,
     rowKind,

@@ -27,6 +27,12 @@ export interface JkOptions {
   memoryBytes?: number;
   /** force a mode instead of choosing by size */
   mode?: "in-core" | "direct";
+  /**
+   * primitive-quartet cutoff of the integral engine (eri.ts): what it skips stays below this in
+   * any integral; default threshold·0.1, an order below what Schwarz screening drops; 0 computes
+   * every primitive quartet
+   */
+  primitiveCutoff?: number;
 }
 
 export interface JkStats {
@@ -74,6 +80,8 @@ export class JkBuilder {
     this.engine = new EriEngine(basis);
     const pairs = this.engine.pairs;
     computeSchwarzFactors(this.engine);
+    // after the Schwarz factors, which must be exact
+    this.engine.primitiveCutoff = options.primitiveCutoff ?? this.threshold * 0.1;
     // two passes over the pair triangle, so the quartet lists are typed arrays from the start
     let count = 0;
     let doubles = 0;
