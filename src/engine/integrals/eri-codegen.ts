@@ -11,6 +11,7 @@
  */
 import { BOYS_TABLE } from "./boys.ts";
 import type { EriClass } from "./eri-class.ts";
+import type { ShellPair } from "./shell-pairs.ts";
 
 /**
  * Size limit of an unrolled loop, in estimated bytes of bytecode. V8 does not optimize larger
@@ -21,7 +22,7 @@ export const MAX_UNROLLED_BYTES = 40000;
 
 let codegenAllowed: boolean | undefined;
 
-function canGenerate(): boolean {
+export function canGenerate(): boolean {
   if (codegenAllowed === undefined) {
     try {
       codegenAllowed = new Function("return 1")() === 1;
@@ -32,14 +33,18 @@ function canGenerate(): boolean {
   return codegenAllowed;
 }
 
-/** Rough bytecode size: ~60 bytes per recurrence statement, ~25 per accumulation statement. */
-function estimatedBytes(cls: EriClass, segmented: boolean): number {
+/**
+ * Rough bytecode size: ~60 bytes per recurrence statement, ~25 per accumulation statement
+ * (ket rows, and with a general bra its coefficient step over each bra kind's slice).
+ */
+function estimatedBytes(cls: EriClass, braSeg: boolean, ketSeg: boolean): number {
   let n = 0;
   for (let o = 0; o < cls.bM.length; o++) n += cls.bM[o];
   for (let o = 0; o < cls.kM.length; o++) n += cls.kM[o];
   let acc = 0;
-  if (segmented) acc = cls.nE * cls.nF;
+  if (ketSeg) acc = cls.nE * cls.nF;
   else for (const k of cls.ketKinds) acc += cls.nE * k.size;
+  if (!braSeg && ketSeg) for (const k of cls.braKinds) acc += k.size * cls.nF;
   return 60 * n + 25 * acc;
 }
 
@@ -75,31 +80,65 @@ function recurrenceLines(cls: EriClass, name: (idx: number) => string): string[]
 }
 
 /**
- * The whole inner loop over the ket's primitive pairs for one bra primitive pair, unrolled
- * for one class: Boys function (the evaluation of boys.ts, inlined for this L), vertical
- * recurrences, and accumulation. One call per bra primitive pair instead of several calls
- * per primitive quartet, and every call site inside is monomorphic.
+ * The whole primitive contraction of one quartet, unrolled for one class and one pair of
+ * contraction types: for every bra primitive pair, the loop over the ket's primitive pairs
+ * with the Boys function (the evaluation of boys.ts, inlined for this L), the vertical
+ * recurrences and the accumulation, then the bra's contraction coefficients. One call per
+ * quartet; every call site inside is monomorphic.
  *
- * bp = [p, K_ab, Px, Py, Pz, PAx, PAy, PAz, Cx, Cy, Cz, lim] (C: the ket's first centre).
- * Primitive quartets with kb[j] / √(p+q) < lim are skipped (lim = cutoff / bra bound; 0 keeps all).
- * Segmented ket (`segmented`): out[k] += block. Otherwise, for each combo c of ket primitive
- * pair j, with row r = kRow[c] of kind rowKind[r]: out[r · blk + e · fs + f] += coef_c ·
- * block[e][f0 + f] over the kind's f slice (f0, fs).
+ * acc[(rab · nrcd + rcd) · blk …] receives, for each row combination, its kinds' slice
+ * [e of the bra kind][f of the ket kind] (the layout finishRows in eri.ts reads). tmp holds
+ * per-bra-primitive partial sums over ket rows when the bra is a general contraction.
+ * Primitive quartets with bound_ab · bound_cd / √(p+q) < cut are skipped (0 keeps all).
  */
-export type KetLoop = (
-  bp: Float64Array, nk: number, kp: Float64Array, kpc: Float64Array, kk: Float64Array, kb: Float64Array,
-  kStart: Int32Array, kRow: Int32Array, kCoef: Float64Array, rowKind: Int32Array, out: Float64Array,
-) => void;
+export type Contraction = (bra: ShellPair, ket: ShellPair, cut: number, acc: Float64Array, tmp: Float64Array) => void;
 
-export function generateKetLoop(cls: EriClass, segmented: boolean): KetLoop | null {
-  if (!canGenerate() || estimatedBytes(cls, segmented) > MAX_UNROLLED_BYTES) return null;
+/** Above this many block entries a bra-general contraction sums into tmp instead of locals. */
+const MAX_LOCAL_SUMS = 48;
+
+/** Generated contractions per class (classes are cached, so this is per process). */
+const made = new WeakMap<EriClass, (Contraction | null | undefined)[]>();
+
+/** The unrolled contraction of a class, made on first use; null for classes too large. */
+export function generateContraction(cls: EriClass, braSeg: boolean, ketSeg: boolean): Contraction | null {
+  let m = made.get(cls);
+  if (m === undefined) made.set(cls, (m = [undefined, undefined, undefined, undefined]));
+  const v = (braSeg ? 2 : 0) + (ketSeg ? 1 : 0);
+  let c = m[v];
+  if (c === undefined) m[v] = c = makeContraction(cls, braSeg, ketSeg);
+  return c;
+}
+
+function makeContraction(cls: EriClass, braSeg: boolean, ketSeg: boolean): Contraction | null {
+  if (!canGenerate() || estimatedBytes(cls, braSeg, ketSeg) > MAX_UNROLLED_BYTES) return null;
+  // a segmented side has shells of one l each, hence one kind starting at 0
+  if ((braSeg && cls.braKinds.length !== 1) || (ketSeg && cls.ketKinds.length !== 1)) return null;
   const L = cls.L;
   const B = BOYS_TABLE;
   const name = (idx: number) => `v${idx}`;
+  const blk = cls.gather.length;
+  const nE = cls.nE, nF = cls.nF;
+  const locals = !braSeg && ketSeg && blk <= MAX_LOCAL_SUMS;
   const src: string[] = [];
-  src.push("const p = bp[0], kab = bp[1], Px = bp[2], Py = bp[3], Pz = bp[4];");
-  src.push("const pax = bp[5], pay = bp[6], paz = bp[7], Cx = bp[8], Cy = bp[9], Cz = bp[10], lim = bp[11];");
+  src.push("const nb = bra.nprim, bP = bra.p, bK = bra.k, bPc = bra.pc, bPa = bra.pa, bBd = bra.bound;");
+  src.push("const nk = ket.nprim, kp = ket.p, kpc = ket.pc, kk = ket.k, kb = ket.bound;");
+  src.push("const Cx = ket.a.x, Cy = ket.a.y, Cz = ket.a.z, kmax = ket.maxBound, kminp = ket.minP;");
+  if (!ketSeg) src.push("const kStart = ket.comboStart, kRow = ket.comboRow, kCoef = ket.comboCoef, rowKind = ket.rowKind;");
+  if (!braSeg) {
+    src.push("const bStart = bra.comboStart, bRow = bra.comboRow, bCoef = bra.comboCoef, bKind = bra.rowKind;");
+    src.push(`const nrcd = ket.nrows, nt = nrcd * ${blk}, kRK = ket.rowKind;`);
+  }
+  // bra-general sums go to tmp (or locals); otherwise straight into acc
+  const target = braSeg ? "acc" : "tmp";
+  src.push("for (let i = 0; i < nb; i++) {");
+  src.push("const bb = bBd[i], p = bP[i];");
+  src.push("if (bb * kmax < cut * Math.sqrt(p + kminp)) continue;");
+  src.push("const lim = cut / bb, kab = bK[i];");
+  src.push("const Px = bPc[3 * i], Py = bPc[3 * i + 1], Pz = bPc[3 * i + 2];");
+  src.push("const pax = bPa[3 * i], pay = bPa[3 * i + 1], paz = bPa[3 * i + 2];");
   src.push("const h2p = 0.5 / p;");
+  if (locals) src.push(`let ${Array.from({ length: blk }, (_, k) => `s${k} = 0`).join(", ")};`);
+  else if (!braSeg) src.push("for (let k = 0; k < nt; k++) tmp[k] = 0;");
   src.push("for (let j = 0; j < nk; j++) {");
   src.push("const q = kp[j];");
   src.push("const ipq = 1 / (p + q), sq = Math.sqrt(ipq);");
@@ -134,9 +173,11 @@ export function generateKetLoop(cls: EriClass, segmented: boolean): KetLoop | nu
     src.push("const rp = rho / p, h2q = 0.5 / q, rq = rho / q, h2pq = 0.5 * ipq;");
   }
   src.push(...recurrenceLines(cls, name));
-  const blk = cls.gather.length;
-  if (segmented) {
-    for (let k = 0; k < blk; k++) src.push(`out[${k}] += ${name(cls.gather[k])};`);
+  if (ketSeg) {
+    for (let k = 0; k < blk; k++) {
+      if (locals) src.push(`s${k} += ${name(cls.gather[k])};`);
+      else src.push(`${target}[${k}] += ${name(cls.gather[k])};`);
+    }
   } else {
     src.push("for (let c = kStart[j]; c < kStart[j + 1]; c++) {");
     src.push(`const cf = kCoef[c], r = kRow[c], o = r * ${blk};`);
@@ -144,15 +185,41 @@ export function generateKetLoop(cls: EriClass, segmented: boolean): KetLoop | nu
     if (kinds.length > 1) src.push("switch (rowKind[r]) {");
     kinds.forEach((kind, ki) => {
       if (kinds.length > 1) src.push(`case ${ki}: {`);
-      for (let e = 0; e < cls.nE; e++)
+      for (let e = 0; e < nE; e++)
         for (let f = 0; f < kind.size; f++)
-          src.push(`out[o + ${e * kind.size + f}] += cf * ${name(cls.gather[e * cls.nF + kind.start + f])};`);
+          src.push(`${target}[o + ${e * kind.size + f}] += cf * ${name(cls.gather[e * nF + kind.start + f])};`);
       if (kinds.length > 1) src.push("break; }");
     });
     if (kinds.length > 1) src.push("}");
     src.push("}");
   }
-  src.push("}");
-  const f = new Function("grid", `return function ketLoop(bp, nk, kp, kpc, kk, kb, kStart, kRow, kCoef, rowKind, out) {\n${src.join("\n")}\n};`);
-  return f(B.grid) as KetLoop;
+  src.push("}"); // ket primitives
+  if (!braSeg) {
+    // the bra's coefficients: acc[rab][rcd] += c · (bra kind's e slice of the sums of row rcd)
+    src.push("for (let c = bStart[i]; c < bStart[i + 1]; c++) {");
+    src.push("const cf = bCoef[c], rab = bRow[c];");
+    const bk = cls.braKinds;
+    if (bk.length > 1) src.push("switch (bKind[rab]) {");
+    bk.forEach((kind, ki) => {
+      if (bk.length > 1) src.push(`case ${ki}: {`);
+      if (locals) {
+        // one ket row of nF entries
+        src.push(`const o = rab * ${blk};`);
+        for (let e = 0; e < kind.size; e++)
+          for (let f = 0; f < nF; f++) src.push(`acc[o + ${e * nF + f}] += cf * s${(kind.start + e) * nF + f};`);
+      } else {
+        src.push("for (let rcd = 0; rcd < nrcd; rcd++) {");
+        src.push(`const fs = ketSizes[kRK[rcd]], sO = rcd * ${blk} + ${kind.start} * fs, dO = (rab * nrcd + rcd) * ${blk}, n = ${kind.size} * fs;`);
+        src.push("for (let k = 0; k < n; k++) acc[dO + k] += cf * tmp[sO + k];");
+        src.push("}");
+      }
+      if (bk.length > 1) src.push("break; }");
+    });
+    if (bk.length > 1) src.push("}");
+    src.push("}");
+  }
+  src.push("}"); // bra primitives
+  const ketSizes = Int32Array.from(cls.ketKinds, (k) => k.size);
+  const f = new Function("grid", "ketSizes", `return function contraction(bra, ket, cut, acc, tmp) {\n${src.join("\n")}\n};`);
+  return f(B.grid, ketSizes) as Contraction;
 }

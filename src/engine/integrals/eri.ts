@@ -17,7 +17,8 @@
 import { boys } from "./boys.ts";
 import { cumStart, ncart } from "./cartesian.ts";
 import { type EriClass, eriClass, type HrrStep } from "./eri-class.ts";
-import { generateKetLoop, type KetLoop } from "./eri-codegen.ts";
+import { type Contraction, generateContraction } from "./eri-codegen.ts";
+import { type Finish, generateFinish } from "./eri-finish.ts";
 import { makeShellPair, type ShellPair } from "./shell-pairs.ts";
 import { mergeSharedExponents, type PreparedBasis, type PreparedShell } from "./shells.ts";
 import { componentTransform } from "./spherical.ts";
@@ -53,8 +54,10 @@ function sparseTransform(l: number, pure: boolean): SparseTransform {
 
 interface ClassEntry {
   cls: EriClass;
-  loopSeg: KetLoop | null | undefined;
-  loopGen: KetLoop | null | undefined;
+  /** unrolled contraction per (bra segmented, ket segmented), index 2·bra + ket; null: tables */
+  con: (Contraction | null | undefined)[];
+  /** unrolled finish per kind combination (Cartesian rows), index braKind · nKetKinds + ketKind */
+  fin: (Finish | null | undefined)[];
 }
 
 export class EriEngine {
@@ -85,7 +88,7 @@ export class EriEngine {
     if (e === undefined) {
       const cls = eriClass(bra.a.l, bra.b.l, ket.a.l, ket.b.l, bra.a.lmin, bra.b.lmin, ket.a.lmin, ket.b.lmin);
       this.ensure(cls);
-      e = { cls, loopSeg: undefined, loopGen: undefined };
+      e = { cls, con: [undefined, undefined, undefined, undefined], fin: new Array(cls.braKinds.length * cls.ketKinds.length).fill(undefined) };
       if (dense) this.table[k] = e;
       else this.overflow.set(k, e);
     }
@@ -107,7 +110,6 @@ export class EriEngine {
   private transforms: SparseTransform[][];
   private maxRows: number;
   private sized = new Set<EriClass>();
-  private loops = [new Map<EriClass, KetLoop | null>(), new Map<EriClass, KetLoop | null>()];
   private bp = new Float64Array(12);
   /**
    * Skip a quartet's primitive quartets whose estimated share (shell-pairs.ts `bound`) is below
@@ -120,16 +122,6 @@ export class EriEngine {
   private outOff = 0;
   private par = new Float64Array(17);
 
-  /** The unrolled ket loop of a class (segmented or general ket), made on first use. */
-  private ketLoop(cls: EriClass, segmented: boolean): KetLoop | null {
-    const map = this.loops[segmented ? 1 : 0];
-    let k = map.get(cls);
-    if (k === undefined) {
-      k = generateKetLoop(cls, segmented);
-      map.set(cls, k);
-    }
-    return k;
-  }
   private strides = new Int32Array(4);
 
   /** Grow the scratch buffers to what a class needs (once per class). */
@@ -226,7 +218,7 @@ export class EriEngine {
     this.outOff = dst ? dstOff : 0;
     for (let rab = 0; rab < nrab; rab++) {
       for (let rcd = 0; rcd < nrcd; rcd++) {
-        this.finishRows(cls, bra, ket, (rab * nrcd + rcd) * blk, rab, rcd, strides, out);
+        this.finishRows(entry, bra, ket, (rab * nrcd + rcd) * blk, rab, rcd, strides, out);
       }
     }
     return out;
@@ -238,39 +230,20 @@ export class EriEngine {
    * holds the per-bra-primitive partial sums [all e][f of the ket kind].
    */
   private contractPrimitives(entry: ClassEntry, bra: ShellPair, ket: ShellPair, blk: number): void {
-    const cls = entry.cls;
-    const ketSeg = ket.segmented;
-    let loop = ketSeg ? entry.loopSeg : entry.loopGen;
-    if (loop === undefined) {
-      loop = this.ketLoop(cls, ketSeg);
-      if (ketSeg) entry.loopSeg = loop;
-      else entry.loopGen = loop;
+    const v = (bra.segmented ? 2 : 0) + (ket.segmented ? 1 : 0);
+    let con = entry.con[v];
+    if (con === undefined) {
+      con = generateContraction(entry.cls, bra.segmented, ket.segmented);
+      entry.con[v] = con;
     }
-    if (loop === null) return this.contractTables(cls, bra, ket, blk);
-    const bothSegmented = bra.segmented && ketSeg;
-    const target = bothSegmented ? this.acc : this.tmp;
-    const n = ket.nrows * blk;
-    const bp = this.bp;
-    bp[8] = ket.a.x; bp[9] = ket.a.y; bp[10] = ket.a.z;
     // shared out over the primitive quartets, so that together they stay below the cutoff
     const cut = this.primitiveCutoff / (bra.nprim * ket.nprim);
-    const ketMax = ket.maxBound, ketMinP = ket.minP;
-    for (let i = 0; i < bra.nprim; i++) {
-      const bb = bra.bound[i];
-      // no ket primitive pair can reach the cutoff with this bra pair
-      if (bb * ketMax < cut * Math.sqrt(bra.p[i] + ketMinP)) continue;
-      bp[11] = cut / bb;
-      bp[0] = bra.p[i]; bp[1] = bra.k[i];
-      bp[2] = bra.pc[3 * i]; bp[3] = bra.pc[3 * i + 1]; bp[4] = bra.pc[3 * i + 2];
-      bp[5] = bra.pa[3 * i]; bp[6] = bra.pa[3 * i + 1]; bp[7] = bra.pa[3 * i + 2];
-      if (!bothSegmented) target.fill(0, 0, n);
-      loop(bp, ket.nprim, ket.p, ket.pc, ket.k, ket.bound, ket.comboStart, ket.comboRow, ket.comboCoef, ket.rowKind, target);
-      if (!bothSegmented) this.braCombos(cls, bra, ket, i, blk);
-    }
+    if (con === null) this.contractTables(entry.cls, bra, ket, blk, cut);
+    else con(bra, ket, cut, this.acc, this.tmp);
   }
 
   /** The same with the table-driven recurrences, for classes too large to unroll. */
-  private contractTables(cls: EriClass, bra: ShellPair, ket: ShellPair, blk: number): void {
+  private contractTables(cls: EriClass, bra: ShellPair, ket: ShellPair, blk: number, cut: number): void {
     const w = this.w;
     const fm = this.fm;
     const pb = this.pb;
@@ -284,7 +257,6 @@ export class EriEngine {
     const kStart = ket.comboStart, kRow = ket.comboRow, kCoef = ket.comboCoef;
     const target = bothSegmented ? this.acc : tmp;
     const par = this.par;
-    const cut = this.primitiveCutoff / (bra.nprim * ket.nprim);
     const kb = ket.bound;
     for (let i = 0; i < bra.nprim; i++) {
       const p = bra.p[i];
@@ -353,9 +325,10 @@ export class EriEngine {
 
   /** Steps 3–4 for one row combination: HRR, transforms, scatter into out. */
   private finishRows(
-    cls: EriClass, bra: ShellPair, ket: ShellPair, off: number,
+    entry: ClassEntry, bra: ShellPair, ket: ShellPair, off: number,
     rab: number, rcd: number, strides: Int32Array, out: Float64Array,
   ): void {
+    const cls = entry.cls;
     const kb = cls.braKinds[bra.rowKind[rab]];
     const kk = cls.ketKinds[ket.rowKind[rcd]];
     const la = kb.l1, lb = kb.l2, lc = kk.l1, ld = kk.l2;
@@ -365,6 +338,17 @@ export class EriEngine {
     const sa = strides[0], sb = strides[1], sc = strides[2], sd = strides[3];
     const oa = bra.a.rowOff[ra], ob = bra.b.rowOff[rb], oc = ket.a.rowOff[rc], od = ket.b.rowOff[rd];
     const acc = this.acc;
+    // unrolled when every row is Cartesian (s, p, Cartesian d …): no HRR programs to walk
+    if ((la < 2 || bra.a.rowPure[ra] === 0) && (lb < 2 || bra.b.rowPure[rb] === 0) &&
+        (lc < 2 || ket.a.rowPure[rc] === 0) && (ld < 2 || ket.b.rowPure[rd] === 0)) {
+      const k = bra.rowKind[rab] * cls.ketKinds.length + ket.rowKind[rcd];
+      let fin = entry.fin[k];
+      if (fin === undefined) entry.fin[k] = fin = generateFinish(cls, bra.rowKind[rab], ket.rowKind[rcd]);
+      if (fin !== null) {
+        fin(acc, off, out, this.outOff + oa * sa + ob * sb + oc * sc + od * sd, sa, sb, sc, sd, bra.ab, ket.ab);
+        return;
+      }
+    }
     const na = ncart(la), nb = ncart(lb), nc = ncart(lc), nd = ncart(ld);
     if (lb === 0 && ld === 0 && la <= 1 && lc <= 1) {
       // (a0|c0) with s or Cartesian-order p: the contracted block is already the answer
