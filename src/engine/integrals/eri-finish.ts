@@ -26,15 +26,15 @@ export type Finish = (
 /** Above this many statements a kind combination stays with the generic path. */
 const MAX_STATEMENTS = 2500;
 
-const made = new WeakMap<EriClass, (Finish | null | undefined)[]>();
+/** Made per row angular momenta (la lb | lc ld): the code depends on nothing else, so classes share it. */
+const made = new Map<number, Finish | null>();
 
 /** The unrolled finish of kinds (bra kind kb, ket kind kk) of a class; null when too large. */
 export function generateFinish(cls: EriClass, kb: number, kk: number): Finish | null {
-  let m = made.get(cls);
-  if (m === undefined) made.set(cls, (m = new Array(cls.braKinds.length * cls.ketKinds.length).fill(undefined)));
-  const k = kb * cls.ketKinds.length + kk;
-  let f = m[k];
-  if (f === undefined) m[k] = f = makeFinish(cls, kb, kk);
+  const b = cls.braKinds[kb], k = cls.ketKinds[kk];
+  const key = ((b.l1 * 16 + b.l2) * 16 + k.l1) * 16 + k.l2;
+  let f = made.get(key);
+  if (f === undefined) made.set(key, (f = makeFinish(b.l1, b.l2, k.l1, k.l2)));
   return f;
 }
 
@@ -54,11 +54,10 @@ function cartesianScale(l: number): number[] {
   return Array.from({ length: t.ncomp }, (_, i) => t.matrix[i * t.ncart + i]);
 }
 
-function makeFinish(cls: EriClass, kbi: number, kki: number): Finish | null {
+function makeFinish(la: number, lb: number, lc: number, ld: number): Finish | null {
   if (!canGenerate()) return null;
-  const kb = cls.braKinds[kbi], kk = cls.ketKinds[kki];
-  const la = kb.l1, lb = kb.l2, lc = kk.l1, ld = kk.l2;
-  const fs = kk.size;
+  // the ket kind's slice of f: levels lc … lc + ld (eri-class.ts kinds)
+  const fs = cumStart(lc + ld + 1) - cumStart(lc);
   const eBase = cumStart(la), fBase = cumStart(lc);
   const lines: string[] = [];
   const memo = new Map<string, string>();
