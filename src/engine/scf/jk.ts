@@ -18,6 +18,7 @@
 import { EriEngine } from "../integrals/eri.ts";
 import { computeSchwarzFactors } from "../integrals/screening.ts";
 import type { ShellPair } from "../integrals/shell-pairs.ts";
+import { type GroupData, groupKernel } from "./jk-kernels.ts";
 import type { PreparedBasis } from "../integrals/shells.ts";
 
 export interface JkOptions {
@@ -61,6 +62,11 @@ export class JkBuilder {
   private qBound: Float64Array;
   /** per quartet the four cross pairs (ac, ad, bc, bd) whose density exchange touches */
   private qCross: Int32Array;
+  /** runs of one block shape in the quartet lists: run g is groupStart[g] … groupStart[g+1]−1 */
+  private groupStart = new Int32Array(1);
+  private groupShape: number[][] = [];
+  /** the store's data for the run kernels (one allocation only) */
+  private groupData: GroupData | null = null;
   /** in-core: chunk index and offset of each quartet's block */
   private qChunk: Int32Array | null = null;
   private qOff: Int32Array | null = null;
@@ -115,6 +121,7 @@ export class JkBuilder {
         q++;
       }
     }
+    this.orderByShape(pairs);
     this.pairDmax = new Float64Array(pairs.length);
     this.pA0 = Int32Array.from(pairs, (P) => P.a.offset);
     this.pB0 = Int32Array.from(pairs, (P) => P.b.offset);
@@ -125,6 +132,47 @@ export class JkBuilder {
     const mode = options.mode ?? (doubles * 8 <= budget ? "in-core" : "direct");
     this.stats = { mode, storedBytes: 0, quartets: count, lastBuildQuartets: 0, integralSeconds: 0 };
     if (mode === "in-core") this.store(doubles);
+  }
+
+  /**
+   * Reorder the quartet lists so quartets of one block shape (na nb | nc nd) are contiguous
+   * (stable within a shape): the store is then filled and digested run by run (jk-kernels.ts).
+   */
+  private orderByShape(pairs: ShellPair[]): void {
+    const count = this.qBra.length;
+    const ids = new Map<number, number>();
+    const shapes: number[][] = [];
+    const shapeOf = new Int32Array(count);
+    for (let q = 0; q < count; q++) {
+      const P = pairs[this.qBra[q]], Q = pairs[this.qKet[q]];
+      const key = ((P.a.nfunc * 64 + P.b.nfunc) * 64 + Q.a.nfunc) * 64 + Q.b.nfunc;
+      let id = ids.get(key);
+      if (id === undefined) {
+        id = shapes.length;
+        ids.set(key, id);
+        shapes.push([P.a.nfunc, P.b.nfunc, Q.a.nfunc, Q.b.nfunc]);
+      }
+      shapeOf[q] = id;
+    }
+    const start = new Int32Array(shapes.length + 1);
+    for (let q = 0; q < count; q++) start[shapeOf[q] + 1]++;
+    for (let g = 0; g < shapes.length; g++) start[g + 1] += start[g];
+    const next = start.slice(0, shapes.length);
+    const bra = new Int32Array(count), ket = new Int32Array(count), bound = new Float64Array(count);
+    const cross = new Int32Array(4 * count);
+    for (let q = 0; q < count; q++) {
+      const t = next[shapeOf[q]]++;
+      bra[t] = this.qBra[q];
+      ket[t] = this.qKet[q];
+      bound[t] = this.qBound[q];
+      for (let x = 0; x < 4; x++) cross[4 * t + x] = this.qCross[4 * q + x];
+    }
+    this.qBra = bra;
+    this.qKet = ket;
+    this.qBound = bound;
+    this.qCross = cross;
+    this.groupStart = start;
+    this.groupShape = shapes;
   }
 
   private store(doubles: number): void {
@@ -163,6 +211,9 @@ export class JkBuilder {
     bytes += used * 8;
     this.qChunk = qChunk;
     this.qOff = qOff;
+    if (this.chunks.length === 1)
+      this.groupData = { qBra: this.qBra, qKet: this.qKet, qBound: this.qBound, qCross: this.qCross, qOff,
+        pA0: this.pA0, pB0: this.pB0, pHalf: this.pHalf };
     this.stats.storedBytes = bytes;
     this.stats.integralSeconds = (performance.now() - t0) / 1000;
   }
@@ -199,12 +250,25 @@ export class JkBuilder {
     const th = threshold;
     let built = 0;
     const qBra = this.qBra, qKet = this.qKet, qBound = this.qBound;
-    const inCore = this.qChunk !== null;
     const one = nd === 1 && wantK;
     const D1 = densities[0], K1 = K[0];
     if (nd > 2) throw new Error("J/K builds take one or two densities");
     let pdAll = 0;
     for (let p = 0; p < pd.length; p++) if (pd[p] > pdAll) pdAll = pd[p];
+    if (one && this.groupData !== null) {
+      // the RHF path through the store: one kernel call per run of one block shape
+      const gd = this.groupData, blk = this.chunks[0];
+      for (let g = 0; g < this.groupShape.length; g++) {
+        const [na, nb, nc, ndd] = this.groupShape[g];
+        built += groupKernel(ndd)(gd, this.groupStart[g], this.groupStart[g + 1], na, nb, nc, blk, pd, pdAll, th, n, D1, J, K1);
+      }
+      this.stats.lastBuildQuartets = built;
+      finishSymmetric(J, n);
+      finishSymmetric(K1, n);
+      return { J, K };
+    }
+    const chunks = this.chunks, qChunk = this.qChunk, qOff = this.qOff;
+    const pA0 = this.pA0, pB0 = this.pB0, pNa = this.pNa, pNb = this.pNb, pHalf = this.pHalf;
     for (let q = 0; q < qBra.length; q++) {
       const bound = qBound[q];
       if (bound * pdAll < th) continue;
@@ -220,15 +284,14 @@ export class JkBuilder {
       built++;
       let blk: Float64Array;
       let off = 0;
-      if (inCore) {
-        blk = this.chunks[this.qChunk![q]];
-        off = this.qOff![q];
+      if (qChunk !== null) {
+        blk = chunks[qChunk[q]];
+        off = qOff![q];
       } else blk = this.engine.compute(pairs[b], pairs[k]);
       if (one) {
         // the RHF path: shell data from typed arrays, no shell objects
-        const sc = this.pHalf[b] * this.pHalf[k] * (b === k ? 0.5 : 1);
-        digestOne(blk, off, n, this.pA0[b], this.pB0[b], this.pA0[k], this.pB0[k],
-          this.pNa[b], this.pNb[b], this.pNa[k], this.pNb[k], sc, D1, J, K1);
+        const sc = pHalf[b] * pHalf[k] * (b === k ? 0.5 : 1);
+        digestOne(blk, off, n, pA0[b], pB0[b], pA0[k], pB0[k], pNa[b], pNb[b], pNa[k], pNb[k], sc, D1, J, K1);
       } else this.digest(pairs[b], pairs[k], blk, off, densities, Dt, J, K, nd, wantK);
     }
     this.stats.lastBuildQuartets = built;
@@ -320,7 +383,10 @@ export class JkBuilder {
   }
 }
 
-/** digest() for one density with exchange (RHF), from plain numbers (s: the block's symmetry scale), small enough for the JIT to keep tight. */
+/**
+ * digest() for one density with exchange (RHF) block by block, from plain numbers (s: the
+ * block's symmetry scale): the direct path; blocks from the store go through jk-kernels.ts.
+ */
 function digestOne(
   blk: Float64Array, off: number, n: number, a0: number, b0: number, c0: number, d0: number,
   na: number, nb: number, nc: number, ndd: number, s: number, D1: Float64Array, J: Float64Array, K1: Float64Array,
@@ -336,11 +402,6 @@ function digestOne(
     K1[ib + c0] += v * D1[ia + d0];
     K1[ia + d0] += v * D1[ib + c0];
     K1[ib + d0] += v * D1[ia + c0];
-    return;
-  }
-  const unrolled = UNROLLED[ndd];
-  if (unrolled !== undefined) {
-    unrolled(blk, off, n, na, nb, nc, a0, b0, c0, d0, s, D1, J, K1);
     return;
   }
   let k = off;
@@ -373,212 +434,6 @@ function digestOne(
     }
   }
 }
-
-/**
- * digestOne for a last shell of four functions (an sp shell: the commonest case in Pople
- * bases). The row pieces D_ad, D_bd and the K_ad, K_bd sums stay in locals across the c loop,
- * so each integral costs two array reads and one read-modify-write instead of seven.
- */
-function digestOneD4(
-  blk: Float64Array, off: number, n: number, na: number, nb: number, nc: number,
-  a0: number, b0: number, c0: number, d0: number, s: number, D1: Float64Array, J: Float64Array, K1: Float64Array,
-): void {
-  const s2 = 2 * s;
-  let k = off;
-  for (let a = 0; a < na; a++) {
-    const ia = (a0 + a) * n;
-    const iad = ia + d0;
-    const pa0 = D1[iad], pa1 = D1[iad + 1], pa2 = D1[iad + 2], pa3 = D1[iad + 3];
-    for (let b = 0; b < nb; b++) {
-      const ib = (b0 + b) * n;
-      const ibd = ib + d0;
-      const pb0 = D1[ibd], pb1 = D1[ibd + 1], pb2 = D1[ibd + 2], pb3 = D1[ibd + 3];
-      const dab = s2 * D1[ia + b0 + b];
-      let jab = 0;
-      let ka0 = 0, ka1 = 0, ka2 = 0, ka3 = 0, kb0 = 0, kb1 = 0, kb2 = 0, kb3 = 0;
-      for (let c = 0; c < nc; c++) {
-        const ic = (c0 + c) * n + d0;
-        const dbc = s * D1[ib + c0 + c], dac = s * D1[ia + c0 + c];
-        const v0 = blk[k], v1 = blk[k + 1], v2 = blk[k + 2], v3 = blk[k + 3];
-        jab += v0 * D1[ic] + v1 * D1[ic + 1] + v2 * D1[ic + 2] + v3 * D1[ic + 3];
-        J[ic] += v0 * dab;
-        J[ic + 1] += v1 * dab;
-        J[ic + 2] += v2 * dab;
-        J[ic + 3] += v3 * dab;
-        K1[ia + c0 + c] += s * (v0 * pb0 + v1 * pb1 + v2 * pb2 + v3 * pb3);
-        K1[ib + c0 + c] += s * (v0 * pa0 + v1 * pa1 + v2 * pa2 + v3 * pa3);
-        ka0 += v0 * dbc; ka1 += v1 * dbc; ka2 += v2 * dbc; ka3 += v3 * dbc;
-        kb0 += v0 * dac; kb1 += v1 * dac; kb2 += v2 * dac; kb3 += v3 * dac;
-        k += 4;
-      }
-      J[ia + b0 + b] += s2 * jab;
-      K1[iad] += ka0; K1[iad + 1] += ka1; K1[iad + 2] += ka2; K1[iad + 3] += ka3;
-      K1[ibd] += kb0; K1[ibd + 1] += kb1; K1[ibd + 2] += kb2; K1[ibd + 3] += kb3;
-    }
-  }
-}
-
-/** digestOneD4 for a last shell of one function (an s shell). */
-function digestOneD1(
-  blk: Float64Array, off: number, n: number, na: number, nb: number, nc: number,
-  a0: number, b0: number, c0: number, d0: number, s: number, D1: Float64Array, J: Float64Array, K1: Float64Array,
-): void {
-  const s2 = 2 * s;
-  let k = off;
-  for (let a = 0; a < na; a++) {
-    const ia = (a0 + a) * n;
-    const iad = ia + d0;
-    const pa0 = D1[iad];
-    for (let b = 0; b < nb; b++) {
-      const ib = (b0 + b) * n;
-      const ibd = ib + d0;
-      const pb0 = D1[ibd];
-      const dab = s2 * D1[ia + b0 + b];
-      let jab = 0;
-      let ka0 = 0, kb0 = 0;
-      for (let c = 0; c < nc; c++) {
-        const ic = (c0 + c) * n + d0;
-        const dbc = s * D1[ib + c0 + c], dac = s * D1[ia + c0 + c];
-        const v0 = blk[k];
-        jab += v0 * D1[ic];
-        J[ic] += v0 * dab;
-        K1[ia + c0 + c] += s * (v0 * pb0);
-        K1[ib + c0 + c] += s * (v0 * pa0);
-        ka0 += v0 * dbc;
-        kb0 += v0 * dac;
-        k += 1;
-      }
-      J[ia + b0 + b] += s2 * jab;
-      K1[iad] += ka0;
-      K1[ibd] += kb0;
-    }
-  }
-}
-
-/** digestOneD4 for a last shell of six functions (a Cartesian d shell). */
-function digestOneD6(
-  blk: Float64Array, off: number, n: number, na: number, nb: number, nc: number,
-  a0: number, b0: number, c0: number, d0: number, s: number, D1: Float64Array, J: Float64Array, K1: Float64Array,
-): void {
-  const s2 = 2 * s;
-  let k = off;
-  for (let a = 0; a < na; a++) {
-    const ia = (a0 + a) * n;
-    const iad = ia + d0;
-    const pa0 = D1[iad], pa1 = D1[iad + 1], pa2 = D1[iad + 2], pa3 = D1[iad + 3], pa4 = D1[iad + 4], pa5 = D1[iad + 5];
-    for (let b = 0; b < nb; b++) {
-      const ib = (b0 + b) * n;
-      const ibd = ib + d0;
-      const pb0 = D1[ibd], pb1 = D1[ibd + 1], pb2 = D1[ibd + 2], pb3 = D1[ibd + 3], pb4 = D1[ibd + 4], pb5 = D1[ibd + 5];
-      const dab = s2 * D1[ia + b0 + b];
-      let jab = 0;
-      let ka0 = 0, ka1 = 0, ka2 = 0, ka3 = 0, ka4 = 0, ka5 = 0, kb0 = 0, kb1 = 0, kb2 = 0, kb3 = 0, kb4 = 0, kb5 = 0;
-      for (let c = 0; c < nc; c++) {
-        const ic = (c0 + c) * n + d0;
-        const dbc = s * D1[ib + c0 + c], dac = s * D1[ia + c0 + c];
-        const v0 = blk[k], v1 = blk[k + 1], v2 = blk[k + 2], v3 = blk[k + 3], v4 = blk[k + 4], v5 = blk[k + 5];
-        jab += v0 * D1[ic] + v1 * D1[ic + 1] + v2 * D1[ic + 2] + v3 * D1[ic + 3] + v4 * D1[ic + 4] + v5 * D1[ic + 5];
-        J[ic] += v0 * dab;
-        J[ic + 1] += v1 * dab;
-        J[ic + 2] += v2 * dab;
-        J[ic + 3] += v3 * dab;
-        J[ic + 4] += v4 * dab;
-        J[ic + 5] += v5 * dab;
-        K1[ia + c0 + c] += s * (v0 * pb0 + v1 * pb1 + v2 * pb2 + v3 * pb3 + v4 * pb4 + v5 * pb5);
-        K1[ib + c0 + c] += s * (v0 * pa0 + v1 * pa1 + v2 * pa2 + v3 * pa3 + v4 * pa4 + v5 * pa5);
-        ka0 += v0 * dbc; ka1 += v1 * dbc; ka2 += v2 * dbc; ka3 += v3 * dbc; ka4 += v4 * dbc; ka5 += v5 * dbc;
-        kb0 += v0 * dac; kb1 += v1 * dac; kb2 += v2 * dac; kb3 += v3 * dac; kb4 += v4 * dac; kb5 += v5 * dac;
-        k += 6;
-      }
-      J[ia + b0 + b] += s2 * jab;
-      K1[iad] += ka0; K1[iad + 1] += ka1; K1[iad + 2] += ka2; K1[iad + 3] += ka3; K1[iad + 4] += ka4; K1[iad + 5] += ka5;
-      K1[ibd] += kb0; K1[ibd + 1] += kb1; K1[ibd + 2] += kb2; K1[ibd + 3] += kb3; K1[ibd + 4] += kb4; K1[ibd + 5] += kb5;
-    }
-  }
-}
-
-/** digestOneD4 for a last shell of three functions (a p shell). */
-function digestOneD3(
-  blk: Float64Array, off: number, n: number, na: number, nb: number, nc: number,
-  a0: number, b0: number, c0: number, d0: number, s: number, D1: Float64Array, J: Float64Array, K1: Float64Array,
-): void {
-  const s2 = 2 * s;
-  let k = off;
-  for (let a = 0; a < na; a++) {
-    const ia = (a0 + a) * n;
-    const iad = ia + d0;
-    const pa0 = D1[iad], pa1 = D1[iad + 1], pa2 = D1[iad + 2];
-    for (let b = 0; b < nb; b++) {
-      const ib = (b0 + b) * n;
-      const ibd = ib + d0;
-      const pb0 = D1[ibd], pb1 = D1[ibd + 1], pb2 = D1[ibd + 2];
-      const dab = s2 * D1[ia + b0 + b];
-      let jab = 0;
-      let ka0 = 0, ka1 = 0, ka2 = 0, kb0 = 0, kb1 = 0, kb2 = 0;
-      for (let c = 0; c < nc; c++) {
-        const ic = (c0 + c) * n + d0;
-        const dbc = s * D1[ib + c0 + c], dac = s * D1[ia + c0 + c];
-        const v0 = blk[k], v1 = blk[k + 1], v2 = blk[k + 2];
-        jab += v0 * D1[ic] + v1 * D1[ic + 1] + v2 * D1[ic + 2];
-        J[ic] += v0 * dab;
-        J[ic + 1] += v1 * dab;
-        J[ic + 2] += v2 * dab;
-        K1[ia + c0 + c] += s * (v0 * pb0 + v1 * pb1 + v2 * pb2);
-        K1[ib + c0 + c] += s * (v0 * pa0 + v1 * pa1 + v2 * pa2);
-        ka0 += v0 * dbc; ka1 += v1 * dbc; ka2 += v2 * dbc;
-        kb0 += v0 * dac; kb1 += v1 * dac; kb2 += v2 * dac;
-        k += 3;
-      }
-      J[ia + b0 + b] += s2 * jab;
-      K1[iad] += ka0; K1[iad + 1] += ka1; K1[iad + 2] += ka2;
-      K1[ibd] += kb0; K1[ibd + 1] += kb1; K1[ibd + 2] += kb2;
-    }
-  }
-}
-
-/** digestOneD4 for a last shell of five functions (a spherical d shell). */
-function digestOneD5(
-  blk: Float64Array, off: number, n: number, na: number, nb: number, nc: number,
-  a0: number, b0: number, c0: number, d0: number, s: number, D1: Float64Array, J: Float64Array, K1: Float64Array,
-): void {
-  const s2 = 2 * s;
-  let k = off;
-  for (let a = 0; a < na; a++) {
-    const ia = (a0 + a) * n;
-    const iad = ia + d0;
-    const pa0 = D1[iad], pa1 = D1[iad + 1], pa2 = D1[iad + 2], pa3 = D1[iad + 3], pa4 = D1[iad + 4];
-    for (let b = 0; b < nb; b++) {
-      const ib = (b0 + b) * n;
-      const ibd = ib + d0;
-      const pb0 = D1[ibd], pb1 = D1[ibd + 1], pb2 = D1[ibd + 2], pb3 = D1[ibd + 3], pb4 = D1[ibd + 4];
-      const dab = s2 * D1[ia + b0 + b];
-      let jab = 0;
-      let ka0 = 0, ka1 = 0, ka2 = 0, ka3 = 0, ka4 = 0, kb0 = 0, kb1 = 0, kb2 = 0, kb3 = 0, kb4 = 0;
-      for (let c = 0; c < nc; c++) {
-        const ic = (c0 + c) * n + d0;
-        const dbc = s * D1[ib + c0 + c], dac = s * D1[ia + c0 + c];
-        const v0 = blk[k], v1 = blk[k + 1], v2 = blk[k + 2], v3 = blk[k + 3], v4 = blk[k + 4];
-        jab += v0 * D1[ic] + v1 * D1[ic + 1] + v2 * D1[ic + 2] + v3 * D1[ic + 3] + v4 * D1[ic + 4];
-        J[ic] += v0 * dab;
-        J[ic + 1] += v1 * dab;
-        J[ic + 2] += v2 * dab;
-        J[ic + 3] += v3 * dab;
-        J[ic + 4] += v4 * dab;
-        K1[ia + c0 + c] += s * (v0 * pb0 + v1 * pb1 + v2 * pb2 + v3 * pb3 + v4 * pb4);
-        K1[ib + c0 + c] += s * (v0 * pa0 + v1 * pa1 + v2 * pa2 + v3 * pa3 + v4 * pa4);
-        ka0 += v0 * dbc; ka1 += v1 * dbc; ka2 += v2 * dbc; ka3 += v3 * dbc; ka4 += v4 * dbc;
-        kb0 += v0 * dac; kb1 += v1 * dac; kb2 += v2 * dac; kb3 += v3 * dac; kb4 += v4 * dac;
-        k += 5;
-      }
-      J[ia + b0 + b] += s2 * jab;
-      K1[iad] += ka0; K1[iad + 1] += ka1; K1[iad + 2] += ka2; K1[iad + 3] += ka3; K1[iad + 4] += ka4;
-      K1[ibd] += kb0; K1[ibd + 1] += kb1; K1[ibd + 2] += kb2; K1[ibd + 3] += kb3; K1[ibd + 4] += kb4;
-    }
-  }
-}
-
-/** The unrolled digestOne kernels by the last shell's function count. */
-const UNROLLED: (typeof digestOneD4 | undefined)[] = [undefined, digestOneD1, undefined, digestOneD3, digestOneD4, digestOneD5, digestOneD6];
 
 /** M ← M + Mᵀ. */
 function finishSymmetric(M: Float64Array, n: number): void {
