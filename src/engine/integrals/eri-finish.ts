@@ -3,11 +3,12 @@
  * 3 of eri.ts (and the diagonal Cartesian normalization of step 4) unrolled into one function.
  *
  * The recurrence is the one of eri-class.ts, (a, b+1_i| = (a+1_i, b| + AB_i (a, b|, and the
- * same on the ket with CD, expanded symbolically with every intermediate a local constant.
+ * same on the ket with CD, expanded symbolically with every intermediate a local constant,
+ * then the Cartesian → function transform of each index in turn (solid harmonics or the
+ * Cartesian normalization).
  * The generic finishRows of eri.ts spends most of a small quartet's time walking its HRR
  * programs and index tables; for Pople sp shells, whose pairs have four kinds each, that is
- * the larger part of the whole integral. Only Cartesian rows are unrolled (s, p and Cartesian
- * d shells); solid-harmonic rows keep the generic path.
+ * the larger part of the whole integral. Kinds too large to unroll keep the generic path.
  */
 import { cartComponents, cartIndex, cumStart } from "./cartesian.ts";
 import { canGenerate } from "./eri-codegen.ts";
@@ -26,15 +27,23 @@ export type Finish = (
 /** Above this many statements a kind combination stays with the generic path. */
 const MAX_STATEMENTS = 2500;
 
-/** Made per row angular momenta (la lb | lc ld): the code depends on nothing else, so classes share it. */
+/**
+ * Made per row angular momenta (la lb | lc ld) and whether each row is solid-harmonic: the
+ * code depends on nothing else, so classes share it.
+ */
 const made = new Map<number, Finish | null>();
 
-/** The unrolled finish of kinds (bra kind kb, ket kind kk) of a class; null when too large. */
-export function generateFinish(cls: EriClass, kb: number, kk: number): Finish | null {
+/**
+ * The unrolled finish of kinds (bra kind kb, ket kind kk) of a class, for rows that are
+ * solid-harmonic (`pure`, a bit per row a b c d) or Cartesian; null when too large.
+ */
+export function generateFinish(cls: EriClass, kb: number, kk: number, pure: number): Finish | null {
   const b = cls.braKinds[kb], k = cls.ketKinds[kk];
-  const key = ((b.l1 * 16 + b.l2) * 16 + k.l1) * 16 + k.l2;
+  // purity matters from d functions up
+  const p = (b.l1 >= 2 ? pure & 8 : 0) | (b.l2 >= 2 ? pure & 4 : 0) | (k.l1 >= 2 ? pure & 2 : 0) | (k.l2 >= 2 ? pure & 1 : 0);
+  const key = (((b.l1 * 16 + b.l2) * 16 + k.l1) * 16 + k.l2) * 16 + p;
   let f = made.get(key);
-  if (f === undefined) made.set(key, (f = makeFinish(b.l1, b.l2, k.l1, k.l2)));
+  if (f === undefined) made.set(key, (f = makeFinish(b.l1, b.l2, k.l1, k.l2, p)));
   return f;
 }
 
@@ -48,13 +57,17 @@ const moved = (t: Triple, ax: number, by: number): Triple => {
   return r;
 };
 
-/** The diagonal of the Cartesian normalization of level l (1 for s and p). */
-function cartesianScale(l: number): number[] {
-  const t = componentTransform(l, false);
-  return Array.from({ length: t.ncomp }, (_, i) => t.matrix[i * t.ncart + i]);
+/** Rows of the Cartesian → function transform of level l: [Cartesian index, coefficient][] per function. */
+function transformRows(l: number, pure: boolean): [number, number][][] {
+  const t = componentTransform(l, pure);
+  return Array.from({ length: t.ncomp }, (_, o) => {
+    const row: [number, number][] = [];
+    for (let i = 0; i < t.ncart; i++) if (t.matrix[o * t.ncart + i] !== 0) row.push([i, t.matrix[o * t.ncart + i]]);
+    return row;
+  });
 }
 
-function makeFinish(la: number, lb: number, lc: number, ld: number): Finish | null {
+function makeFinish(la: number, lb: number, lc: number, ld: number, pure: number): Finish | null {
   if (!canGenerate()) return null;
   // the ket kind's slice of f: levels lc … lc + ld (eri-class.ts kinds)
   const fs = cumStart(lc + ld + 1) - cumStart(lc);
@@ -91,19 +104,38 @@ function makeFinish(la: number, lb: number, lc: number, ld: number): Finish | nu
     return v;
   };
   const [A, Bc, C, D] = [la, lb, lc, ld].map((l) => cartComponents(l));
-  const [ta, tb, tc, td] = [la, lb, lc, ld].map(cartesianScale);
+  // Cartesian (ab|cd) as expressions, then the transform of each index in turn (d, c, b, a):
+  // a term that is a single coefficient-1 entry stays a name, anything else becomes a local
+  let cur: string[] = [];
+  for (const a of A) for (const b of Bc) for (const c of C) for (const d of D) cur.push(ket(a, b, c, d));
+  const dims = [A.length, Bc.length, C.length, D.length];
+  const ls = [la, lb, lc, ld];
+  for (let axis = 3; axis >= 0; axis--) {
+    const rows = transformRows(ls[axis], (pure & (8 >> axis)) !== 0);
+    const inner = dims.slice(axis + 1).reduce((x, y) => x * y, 1);
+    const outer = dims.slice(0, axis).reduce((x, y) => x * y, 1);
+    const next: string[] = [];
+    for (let o = 0; o < outer; o++)
+      for (let r = 0; r < rows.length; r++)
+        for (let i = 0; i < inner; i++) {
+          const terms = rows[r].map(([c, v]) => [cur[(o * dims[axis] + c) * inner + i], v] as const);
+          if (terms.length === 1 && terms[0][1] === 1) next.push(terms[0][0]);
+          else {
+            const v = `h${nv++}`;
+            lines.push(`const ${v} = ${terms.map(([x, c]) => `${c} * ${x}`).join(" + ")};`);
+            next.push(v);
+          }
+        }
+    dims[axis] = rows.length;
+    cur = next;
+  }
   const stride = (s: string, i: number) => (i === 0 ? "" : i === 1 ? ` + ${s}` : ` + ${i} * ${s}`);
-  A.forEach((a, ia) =>
-    Bc.forEach((b, ib) =>
-      C.forEach((c, ic) =>
-        D.forEach((d, id) => {
-          const v = ket(a, b, c, d);
-          const s = ta[ia] * tb[ib] * tc[ic] * td[id];
-          lines.push(`out[base${stride("sa", ia)}${stride("sb", ib)}${stride("sc", ic)}${stride("sd", id)}] = ${s === 1 ? v : `${s} * ${v}`};`);
-        }),
-      ),
-    ),
-  );
+  let t = 0;
+  for (let ia = 0; ia < dims[0]; ia++)
+    for (let ib = 0; ib < dims[1]; ib++)
+      for (let ic = 0; ic < dims[2]; ic++)
+        for (let id = 0; id < dims[3]; id++)
+          lines.push(`out[base${stride("sa", ia)}${stride("sb", ib)}${stride("sc", ic)}${stride("sd", id)}] = ${cur[t++]};`);
   if (lines.length > MAX_STATEMENTS) return null;
   const head = "const ab0 = ab[0], ab1 = ab[1], ab2 = ab[2], cd0 = cd[0], cd1 = cd[1], cd2 = cd[2];";
   const f = new Function(`return function finish(acc, off, out, base, sa, sb, sc, sd, ab, cd) {\n${head}\n${lines.join("\n")}\n};`);

@@ -56,7 +56,7 @@ interface ClassEntry {
   cls: EriClass;
   /** unrolled contraction per (bra segmented, ket segmented), index 2·bra + ket; null: tables */
   con: (Contraction | null | undefined)[];
-  /** unrolled finish per kind combination (Cartesian rows), index braKind · nKetKinds + ketKind */
+  /** unrolled finish per kind combination and row purity, index 16 · (braKind · nKetKinds + ketKind) + purity bits */
   fin: (Finish | null | undefined)[];
 }
 
@@ -88,7 +88,7 @@ export class EriEngine {
     if (e === undefined) {
       const cls = eriClass(bra.a.l, bra.b.l, ket.a.l, ket.b.l, bra.a.lmin, bra.b.lmin, ket.a.lmin, ket.b.lmin);
       this.ensure(cls);
-      e = { cls, con: [undefined, undefined, undefined, undefined], fin: new Array(cls.braKinds.length * cls.ketKinds.length).fill(undefined) };
+      e = { cls, con: [undefined, undefined, undefined, undefined], fin: new Array(16 * cls.braKinds.length * cls.ketKinds.length).fill(undefined) };
       if (dense) this.table[k] = e;
       else this.overflow.set(k, e);
     }
@@ -338,12 +338,12 @@ export class EriEngine {
     const sa = strides[0], sb = strides[1], sc = strides[2], sd = strides[3];
     const oa = bra.a.rowOff[ra], ob = bra.b.rowOff[rb], oc = ket.a.rowOff[rc], od = ket.b.rowOff[rd];
     const acc = this.acc;
-    // unrolled when every row is Cartesian (s, p, Cartesian d …): no HRR programs to walk
-    if ((la < 2 || bra.a.rowPure[ra] === 0) && (lb < 2 || bra.b.rowPure[rb] === 0) &&
-        (lc < 2 || ket.a.rowPure[rc] === 0) && (ld < 2 || ket.b.rowPure[rd] === 0)) {
+    {
       const k = bra.rowKind[rab] * cls.ketKinds.length + ket.rowKind[rcd];
-      let fin = entry.fin[k];
-      if (fin === undefined) entry.fin[k] = fin = generateFinish(cls, bra.rowKind[rab], ket.rowKind[rcd]);
+      const pure = (bra.a.rowPure[ra] << 3) | (bra.b.rowPure[rb] << 2) | (ket.a.rowPure[rc] << 1) | ket.b.rowPure[rd];
+      // the table is per class and purity pattern; purity is per row, so look it up per call
+      let fin = entry.fin[16 * k + pure];
+      if (fin === undefined) entry.fin[16 * k + pure] = fin = generateFinish(cls, bra.rowKind[rab], ket.rowKind[rcd], pure);
       if (fin !== null) {
         fin(acc, off, out, this.outOff + oa * sa + ob * sb + oc * sc + od * sd, sa, sb, sc, sd, bra.ab, ket.ab);
         return;
