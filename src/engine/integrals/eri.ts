@@ -52,10 +52,20 @@ function sparseTransform(l: number, pure: boolean): SparseTransform {
   return { identity, nout: t.ncomp, nin: t.ncart, start: Int32Array.from(start), idx: Int32Array.from(idx), val: Float64Array.from(val) };
 }
 
+/**
+ * Quartets of a class computed through the tables before its generated code is made and used.
+ * Generated code costs compilation and runs slowly until the JIT has optimized it: measured on
+ * water/cc-pVTZ (about a hundred classes, few quartets each), generating from the first quartet
+ * made the whole RHF run take 2.3 s instead of 1.0 s; a class with many quartets soon repays it.
+ */
+export const WARM_CALLS = 256;
+
 interface ClassEntry {
   cls: EriClass;
   /** unrolled contraction per (bra segmented, ket segmented), index 2·bra + ket; null: tables */
   con: (Contraction | null | undefined)[];
+  /** quartets of the class computed so far (by this engine) */
+  calls: number;
   /** unrolled finish per kind combination and row purity, index 16 · (braKind · nKetKinds + ketKind) + purity bits */
   fin: (Finish | null | undefined)[];
 }
@@ -88,7 +98,7 @@ export class EriEngine {
     if (e === undefined) {
       const cls = eriClass(bra.a.l, bra.b.l, ket.a.l, ket.b.l, bra.a.lmin, bra.b.lmin, ket.a.lmin, ket.b.lmin);
       this.ensure(cls);
-      e = { cls, con: [undefined, undefined, undefined, undefined], fin: new Array(16 * cls.braKinds.length * cls.ketKinds.length).fill(undefined) };
+      e = { cls, calls: 0, con: [undefined, undefined, undefined, undefined], fin: new Array(16 * cls.braKinds.length * cls.ketKinds.length).fill(undefined) };
       if (dense) this.table[k] = e;
       else this.overflow.set(k, e);
     }
@@ -140,13 +150,19 @@ export class EriEngine {
     }
   }
 
+  /** quartets per class through the tables before generated code (WARM_CALLS) */
+  private readonly warmCalls: number;
+
   /**
    * `mergeShells: false` keeps sp halves apart (for tests: the merged path must agree).
+   * `warmCalls` overrides WARM_CALLS (tests: 0 uses generated code from the first quartet,
+   * Infinity never).
    * `lazyPairs: true` makes shell pairs only when pair(i, j) first asks for them (for callers
    * that need a few of many possible pairs); `pairs` is then sparse.
    */
-  constructor(basis: PreparedBasis, options: { mergeShells?: boolean; lazyPairs?: boolean } = {}) {
+  constructor(basis: PreparedBasis, options: { mergeShells?: boolean; lazyPairs?: boolean; warmCalls?: number } = {}) {
     this.basis = basis;
+    this.warmCalls = options.warmCalls ?? WARM_CALLS;
     const sh = options.mergeShells === false ? basis.shells.slice() : mergeSharedExponents(basis.shells);
     this.shells = sh;
     const pairs: ShellPair[] = [];
@@ -231,7 +247,7 @@ export class EriEngine {
    */
   private contractPrimitives(entry: ClassEntry, bra: ShellPair, ket: ShellPair, blk: number): void {
     const v = (bra.segmented ? 2 : 0) + (ket.segmented ? 1 : 0);
-    let con = entry.con[v];
+    let con = entry.calls++ < this.warmCalls ? null : entry.con[v];
     if (con === undefined) {
       con = generateContraction(entry.cls, bra.segmented, ket.segmented);
       entry.con[v] = con;
@@ -342,7 +358,7 @@ export class EriEngine {
       const k = bra.rowKind[rab] * cls.ketKinds.length + ket.rowKind[rcd];
       const pure = (bra.a.rowPure[ra] << 3) | (bra.b.rowPure[rb] << 2) | (ket.a.rowPure[rc] << 1) | ket.b.rowPure[rd];
       // the table is per class and purity pattern; purity is per row, so look it up per call
-      let fin = entry.fin[16 * k + pure];
+      let fin = entry.calls <= this.warmCalls ? null : entry.fin[16 * k + pure];
       if (fin === undefined) entry.fin[16 * k + pure] = fin = generateFinish(cls, bra.rowKind[rab], ket.rowKind[rcd], pure);
       if (fin !== null) {
         fin(acc, off, out, this.outOff + oa * sa + ob * sb + oc * sc + od * sd, sa, sb, sc, sd, bra.ab, ket.ab);

@@ -220,9 +220,9 @@ function schwarzDiag(eng: EriEngine, sh: PreparedShell[], i: number, j: number):
  * centres coincide and the angular momenta cannot couple): there max |reference| is rounding
  * noise, and the scale is the Schwarz bound √(ab|ab)√(cd|cd) (from the engine's diagonal blocks).
  */
-function checkCase(c: Case): { ref: number; orient: number; zero: boolean } {
+function checkCase(c: Case, warmCalls: number): { ref: number; orient: number; zero: boolean } {
   const basis = prepareShells(c.shells);
-  const eng = new EriEngine(basis);
+  const eng = new EriEngine(basis, { warmCalls });
   const sh = basis.shells;
   const ref = referenceEriBlock(sh[0], sh[1], sh[2], sh[3]);
   const nf = sh.map((s) => s.nfunc);
@@ -252,7 +252,10 @@ describe("EriEngine against the independent McMurchie–Davidson reference (refe
   // no source). The orientations are the 8-fold permutational symmetry (ab|cd) = (ba|cd) =
   // (ab|dc) = (cd|ab) … (exact analytic result); the engine takes different recurrence paths for
   // them, so they agree to rounding only.
-  it("matches every class with l ≤ 2 in each position (81 classes × 2 variants), Cartesian and spherical, segmented and general", () => {
+  // every check runs twice: through the table-driven code (which a class uses for its first
+  // quartets, eri.ts WARM_CALLS) and through the generated code from the first quartet
+  for (const [mode, warmCalls] of [["tables", Infinity], ["generated code", 0]] as const) {
+  it(`matches every class with l ≤ 2 in each position (81 classes × 2 variants), Cartesian and spherical, segmented and general (${mode})`, () => {
     const r = rng(41);
     let worst = 0;
     let worstO = 0;
@@ -260,7 +263,7 @@ describe("EriEngine against the independent McMurchie–Davidson reference (refe
     for (const ls of UP_TO_D)
       for (let v = 0; v < 2; v++) {
         const c = makeCase(r, ls, v + 2 * (ls[0] + ls[1] + ls[2] + ls[3]));
-        const e = checkCase(c);
+        const e = checkCase(c, warmCalls);
         if (e.ref > worst) {
           worst = e.ref;
           where = c.label;
@@ -271,14 +274,14 @@ describe("EriEngine against the independent McMurchie–Davidson reference (refe
     expect(worstO).toBeLessThanOrEqual(1e-12);
   });
 
-  it("matches classes with f and g functions in every position", () => {
+  it(`matches classes with f and g functions in every position (${mode})`, () => {
     const r = rng(42);
     let worst = 0;
     let worstO = 0;
     let where = "";
     WITH_F_G.forEach((ls, i) => {
       const c = makeCase(r, ls, i);
-      const e = checkCase(c);
+      const e = checkCase(c, warmCalls);
       if (e.ref > worst) {
         worst = e.ref;
         where = c.label;
@@ -288,6 +291,7 @@ describe("EriEngine against the independent McMurchie–Davidson reference (refe
     expect(worst, where).toBeLessThanOrEqual(1e-12);
     expect(worstO).toBeLessThanOrEqual(1e-12);
   });
+  }
 
   // (gg|gg) with one primitive per shell; in each pair one diffuse and one tight g
   const ggShells = (pure: boolean): Shell[] => [
