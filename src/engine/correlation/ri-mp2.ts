@@ -91,9 +91,15 @@ function fittedFactors(
   const ov = no * nv;
   for (let P = 0; P < naux; P++) {
     const row = P * ov;
-    for (let Q = 0; Q < P; Q++) {
+    // four earlier rows per pass: one load and store of row P serves four multiply-adds
+    let Q = 0;
+    for (; Q + 4 <= P; Q += 4) {
+      const l0 = L[P * naux + Q], l1 = L[P * naux + Q + 1], l2 = L[P * naux + Q + 2], l3 = L[P * naux + Q + 3];
+      const q0 = Q * ov, q1 = q0 + ov, q2 = q1 + ov, q3 = q2 + ov;
+      for (let k = 0; k < ov; k++) I[row + k] -= l0 * I[q0 + k] + l1 * I[q1 + k] + l2 * I[q2 + k] + l3 * I[q3 + k];
+    }
+    for (; Q < P; Q++) {
       const l = L[P * naux + Q];
-      if (l === 0) continue;
       const rq = Q * ov;
       for (let k = 0; k < ov; k++) I[row + k] -= l * I[rq + k];
     }

@@ -53,19 +53,25 @@ function sparseTransform(l: number, pure: boolean): SparseTransform {
 }
 
 /**
- * Quartets of a class computed through the tables before its generated code is made and used.
- * Generated code costs compilation and runs slowly until the JIT has optimized it: measured on
- * water/cc-pVTZ (about a hundred classes, few quartets each), generating from the first quartet
- * made the whole RHF run take 2.3 s instead of 1.0 s; a class with many quartets soon repays it.
+ * Quartets of a class computed through the tables (in this process) before its generated code
+ * is made and used. Generated code costs compilation and runs slowly until the JIT has
+ * optimized it: measured on water/cc-pVTZ (about a hundred classes, few quartets each),
+ * generating from the first quartet made the whole RHF run take 2.3 s instead of 0.8 s; a
+ * class with many quartets soon repays it. Counted per process, like the generated code: a
+ * count per engine sent 12% of the quartets of every new benzene/cc-pVDZ engine through the
+ * tables and cost it a third more time.
  */
-export const WARM_CALLS = 256;
+export const WARM_CALLS = 64;
+
+/** Quartets computed per class in this process. */
+const classUse = new WeakMap<EriClass, { calls: number }>();
 
 interface ClassEntry {
   cls: EriClass;
   /** unrolled contraction per (bra segmented, ket segmented), index 2·bra + ket; null: tables */
   con: (Contraction | null | undefined)[];
-  /** quartets of the class computed so far (by this engine) */
-  calls: number;
+  /** quartets of the class computed so far in this process (shared between engines) */
+  use: { calls: number };
   /** unrolled finish per kind combination and row purity, index 16 · (braKind · nKetKinds + ketKind) + purity bits */
   fin: (Finish | null | undefined)[];
 }
@@ -98,7 +104,9 @@ export class EriEngine {
     if (e === undefined) {
       const cls = eriClass(bra.a.l, bra.b.l, ket.a.l, ket.b.l, bra.a.lmin, bra.b.lmin, ket.a.lmin, ket.b.lmin);
       this.ensure(cls);
-      e = { cls, calls: 0, con: [undefined, undefined, undefined, undefined], fin: new Array(16 * cls.braKinds.length * cls.ketKinds.length).fill(undefined) };
+      let use = classUse.get(cls);
+      if (use === undefined) classUse.set(cls, (use = { calls: 0 }));
+      e = { cls, use, con: [undefined, undefined, undefined, undefined], fin: new Array(16 * cls.braKinds.length * cls.ketKinds.length).fill(undefined) };
       if (dense) this.table[k] = e;
       else this.overflow.set(k, e);
     }
@@ -232,9 +240,27 @@ export class EriEngine {
     const total = nfPa * nfPb * nfQa * nfQb;
     const out = dst ?? (this.out.length >= total ? this.out : (this.out = new Float64Array(total)));
     this.outOff = dst ? dstOff : 0;
+    // the class's first quartets go through the generic finish; its generated code after
+    const generated = entry.use.calls > this.warmCalls;
+    const nrb = bra.b.ncontr, nrd = ket.b.ncontr, nkk = cls.ketKinds.length;
     for (let rab = 0; rab < nrab; rab++) {
+      const ra = (rab / nrb) | 0, rb = rab - ra * nrb;
       for (let rcd = 0; rcd < nrcd; rcd++) {
-        this.finishRows(entry, bra, ket, (rab * nrcd + rcd) * blk, rab, rcd, strides, out);
+        const off = (rab * nrcd + rcd) * blk;
+        if (generated) {
+          const rc = (rcd / nrd) | 0, rd = rcd - rc * nrd;
+          const k = bra.rowKind[rab] * nkk + ket.rowKind[rcd];
+          const pure = (bra.a.rowPure[ra] << 3) | (bra.b.rowPure[rb] << 2) | (ket.a.rowPure[rc] << 1) | ket.b.rowPure[rd];
+          let fin = entry.fin[16 * k + pure];
+          if (fin === undefined) entry.fin[16 * k + pure] = fin = generateFinish(cls, bra.rowKind[rab], ket.rowKind[rcd], pure);
+          if (fin !== null) {
+            const sa = strides[0], sb = strides[1], sc = strides[2], sd = strides[3];
+            const base = this.outOff + bra.a.rowOff[ra] * sa + bra.b.rowOff[rb] * sb + ket.a.rowOff[rc] * sc + ket.b.rowOff[rd] * sd;
+            fin(this.acc, off, out, base, sa, sb, sc, sd, bra.ab, ket.ab);
+            continue;
+          }
+        }
+        this.finishRows(entry, bra, ket, off, rab, rcd, strides, out);
       }
     }
     return out;
@@ -247,7 +273,7 @@ export class EriEngine {
    */
   private contractPrimitives(entry: ClassEntry, bra: ShellPair, ket: ShellPair, blk: number): void {
     const v = (bra.segmented ? 2 : 0) + (ket.segmented ? 1 : 0);
-    let con = entry.calls++ < this.warmCalls ? null : entry.con[v];
+    let con = entry.use.calls++ < this.warmCalls ? null : entry.con[v];
     if (con === undefined) {
       con = generateContraction(entry.cls, bra.segmented, ket.segmented);
       entry.con[v] = con;
@@ -354,17 +380,6 @@ export class EriEngine {
     const sa = strides[0], sb = strides[1], sc = strides[2], sd = strides[3];
     const oa = bra.a.rowOff[ra], ob = bra.b.rowOff[rb], oc = ket.a.rowOff[rc], od = ket.b.rowOff[rd];
     const acc = this.acc;
-    {
-      const k = bra.rowKind[rab] * cls.ketKinds.length + ket.rowKind[rcd];
-      const pure = (bra.a.rowPure[ra] << 3) | (bra.b.rowPure[rb] << 2) | (ket.a.rowPure[rc] << 1) | ket.b.rowPure[rd];
-      // the table is per class and purity pattern; purity is per row, so look it up per call
-      let fin = entry.calls <= this.warmCalls ? null : entry.fin[16 * k + pure];
-      if (fin === undefined) entry.fin[16 * k + pure] = fin = generateFinish(cls, bra.rowKind[rab], ket.rowKind[rcd], pure);
-      if (fin !== null) {
-        fin(acc, off, out, this.outOff + oa * sa + ob * sb + oc * sc + od * sd, sa, sb, sc, sd, bra.ab, ket.ab);
-        return;
-      }
-    }
     const na = ncart(la), nb = ncart(lb), nc = ncart(lc), nd = ncart(ld);
     if (lb === 0 && ld === 0 && la <= 1 && lc <= 1) {
       // (a0|c0) with s or Cartesian-order p: the contracted block is already the answer
