@@ -93,6 +93,9 @@ function recurrenceLines(cls: EriClass, name: (idx: number) => string): string[]
  */
 export type Contraction = (bra: ShellPair, ket: ShellPair, cut: number, acc: Float64Array, tmp: Float64Array) => void;
 
+/** Classes up to this L evaluate every Boys order by its own Taylor series (no e^−T). */
+const BOYS_OWN_TAYLOR = 2;
+
 /** Above this many block entries a bra-general contraction sums into tmp instead of locals. */
 const MAX_LOCAL_SUMS = 48;
 
@@ -147,22 +150,35 @@ function makeContraction(cls: EriClass, braSeg: boolean, ketSeg: boolean): Contr
   src.push("const dx = Px - Qx, dy = Py - Qy, dz = Pz - Qz;");
   src.push("const T = rho * (dx * dx + dy * dy + dz * dz);");
   src.push("const pref = kab * kk[j] * sq;");
-  // Boys F_0..F_L, as boys.ts evaluates it
+  // Boys F_0..F_L, as boys.ts evaluates it, except: up to L = BOYS_OWN_TAYLOR each order takes
+  // its own Taylor series from the table (independent chains the CPU overlaps, where the
+  // downward recursion needs e^−T, a call that costs more than the chains); and beyond the
+  // table (T ≥ 64) the upward recursion drops e^−T < 2e−28, below 1e−16 of F_m for m ≤ 8
   for (let m = 0; m <= L; m++) src.push(`let f${m};`);
   src.push(`if (T < ${B.tTable}) {`);
-  src.push(`const g = Math.round(T * ${1 / B.step}), d = g * ${B.step} - T, b = g * ${B.orders} + ${L};`);
-  let horner = `grid[b + ${B.terms - 1}] * ${B.invFact[B.terms - 1]}`;
-  for (let k = B.terms - 2; k >= 0; k--) horner = `(${horner}) * d + grid[b + ${k}] * ${B.invFact[k]}`;
-  src.push(`f${L} = ${horner};`);
-  if (L > 0) {
+  src.push(`const g = Math.round(T * ${1 / B.step}), d = g * ${B.step} - T, b = g * ${B.orders};`);
+  const taylor = (m: number) => {
+    let h = `grid[b + ${m + B.terms - 1}] * ${B.invFact[B.terms - 1]}`;
+    for (let k = B.terms - 2; k >= 0; k--) h = `(${h}) * d + grid[b + ${m + k}] * ${B.invFact[k]}`;
+    return h;
+  };
+  if (L <= BOYS_OWN_TAYLOR) {
+    for (let m = 0; m <= L; m++) src.push(`f${m} = ${taylor(m)};`);
+  } else {
+    src.push(`f${L} = ${taylor(L)};`);
     src.push("const e = Math.exp(-T), t2 = 2 * T;");
     for (let m = L - 1; m >= 0; m--) src.push(`f${m} = (t2 * f${m + 1} + e) * ${1 / (2 * m + 1)};`);
   }
   src.push("} else {");
   src.push(`f0 = ${B.halfSqrtPi} / Math.sqrt(T);`);
   if (L > 0) {
-    src.push("const e = Math.exp(-T), i2t = 0.5 / T;");
-    for (let m = 0; m < L; m++) src.push(`f${m + 1} = (${2 * m + 1} * f${m} - e) * i2t;`);
+    if (L <= 8) {
+      src.push("const i2t = 0.5 / T;");
+      for (let m = 0; m < L; m++) src.push(`f${m + 1} = ${2 * m + 1} * f${m} * i2t;`);
+    } else {
+      src.push("const e = Math.exp(-T), i2t = 0.5 / T;");
+      for (let m = 0; m < L; m++) src.push(`f${m + 1} = (${2 * m + 1} * f${m} - e) * i2t;`);
+    }
   }
   src.push("}");
   for (let m = 0; m <= L; m++) src.push(`const ${name(m)} = pref * f${m};`);
