@@ -293,6 +293,26 @@ describe("EriEngine against the independent McMurchie–Davidson reference (refe
   });
   }
 
+  it("matches low classes far apart (Boys argument beyond its table), relative to the block itself, tables and generated code", () => {
+    // T = ρ R² > 64: the generated code's upward recursion there leaves out e^−T (eri-codegen.ts);
+    // the reference keeps it (boys.ts). Compared to the block's own largest element, so the
+    // tiny values count in full.
+    for (const [l1, l2, l3, l4] of [[0, 0, 0, 0], [1, 0, 0, 0], [1, 0, 1, 0], [1, 1, 0, 0], [2, 1, 1, 0], [2, 2, 2, 2]]) {
+      for (const R of [5.5, 8, 12]) {
+        const basis = prepareShells([
+          primShell(l1, [0, 0, 0], 2.5), primShell(l2, [0.3, 0, 0], 1.5),
+          primShell(l3, [0.1, R, 0.2], 2.0), primShell(l4, [0, R, -0.3], 1.8),
+        ]);
+        const sh = basis.shells;
+        const ref = referenceEriBlock(sh[0], sh[1], sh[2], sh[3]);
+        for (const warmCalls of [0, Infinity]) {
+          const blk = engineBlock(new EriEngine(basis, { warmCalls }), sh, [0, 1, 2, 3]);
+          expect(relErr(blk, ref), `(${l1}${l2}|${l3}${l4}) R ${R} warm ${warmCalls}`).toBeLessThanOrEqual(1e-13);
+        }
+      }
+    }
+  });
+
   // (gg|gg) with one primitive per shell; in each pair one diffuse and one tight g
   const ggShells = (pure: boolean): Shell[] => [
     primShell(4, [0.48883361276239157, -0.9128561620600522, -0.8759447997435927], 3.8487002830805137, pure, 0),
