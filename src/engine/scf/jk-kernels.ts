@@ -132,36 +132,62 @@ function genericKernel(nd: number): GroupKernel {
       const dmax = Math.max(pd[bi], pd[ki], pd[qCross[4 * q]], pd[qCross[4 * q + 1]], pd[qCross[4 * q + 2]], pd[qCross[4 * q + 3]]);
       if (bound * dmax < th) continue;
       built++;
-      const a0 = pA0[bi], b0 = pB0[bi], c0 = pA0[ki], d0 = pB0[ki];
-      const s = pHalf[bi] * pHalf[ki] * (bi === ki ? 0.5 : 1), s2 = 2 * s;
-      let o = qOff[q];
-      for (let a = 0; a < na; a++) {
-        const ia = (a0 + a) * n, iad = ia + d0;
-        for (let b = 0; b < nb; b++) {
-          const ib = (b0 + b) * n, ibd = ib + d0;
-          const dab = s2 * D1[ia + b0 + b];
-          let jab = 0;
-          for (let c = 0; c < nc; c++) {
-            const ic = (c0 + c) * n + d0;
-            const dbc = s * D1[ib + c0 + c], dac = s * D1[ia + c0 + c];
-            let kac = 0, kbc = 0;
-            for (let d = 0; d < nd; d++) {
-              const v = blk[o + d];
-              jab += v * D1[ic + d];
-              J[ic + d] += v * dab;
-              kac += v * D1[ibd + d];
-              kbc += v * D1[iad + d];
-              K1[iad + d] += v * dbc;
-              K1[ibd + d] += v * dac;
-            }
-            K1[ia + c0 + c] += s * kac;
-            K1[ib + c0 + c] += s * kbc;
-            o += nd;
-          }
-          J[ia + b0 + b] += s2 * jab;
-        }
-      }
+      const s = pHalf[bi] * pHalf[ki] * (bi === ki ? 0.5 : 1);
+      digestBlock(blk, qOff[q], n, pA0[bi], pB0[bi], pA0[ki], pB0[ki], na, nb, nc, nd, s, D1, J, K1);
     }
     return built;
   };
 }
+
+/**
+ * One block (shape na nb | nc ndd, first functions a0 … d0, symmetry scale s) into J and K1:
+ * the direct build's path block by block, and the plain kernel's body.
+ */
+export function digestBlock(
+  blk: Float64Array, off: number, n: number, a0: number, b0: number, c0: number, d0: number,
+  na: number, nb: number, nc: number, ndd: number, s: number, D1: Float64Array, J: Float64Array, K1: Float64Array,
+): void {
+  const s2 = 2 * s;
+  if (na * nb * nc * ndd === 1) {
+    // (ss|ss), the most common block with hydrogen-rich molecules: no loops
+    const v = s * blk[off];
+    const ia = a0 * n, ib = b0 * n, ic = c0 * n;
+    J[ia + b0] += 2 * v * D1[ic + d0];
+    J[ic + d0] += 2 * v * D1[ia + b0];
+    K1[ia + c0] += v * D1[ib + d0];
+    K1[ib + c0] += v * D1[ia + d0];
+    K1[ia + d0] += v * D1[ib + c0];
+    K1[ib + d0] += v * D1[ia + c0];
+    return;
+  }
+  let k = off;
+  for (let a = 0; a < na; a++) {
+    const ia = (a0 + a) * n;
+    const iad = ia + d0;
+    for (let b = 0; b < nb; b++) {
+      const ib = (b0 + b) * n;
+      const ibd = ib + d0;
+      const dab = s2 * D1[ia + b0 + b];
+      let jab = 0;
+      for (let c = 0; c < nc; c++) {
+        const ic = (c0 + c) * n + d0;
+        const dbc = s * D1[ib + c0 + c], dac = s * D1[ia + c0 + c];
+        let kac = 0, kbc = 0;
+        for (let d = 0; d < ndd; d++) {
+          const v = blk[k + d];
+          jab += v * D1[ic + d];
+          J[ic + d] += v * dab;
+          kac += v * D1[ibd + d];
+          kbc += v * D1[iad + d];
+          K1[iad + d] += v * dbc;
+          K1[ibd + d] += v * dac;
+        }
+        K1[ia + c0 + c] += s * kac;
+        K1[ib + c0 + c] += s * kbc;
+        k += ndd;
+      }
+      J[ia + b0 + b] += s2 * jab;
+    }
+  }
+}
+

@@ -18,7 +18,7 @@
 import { EriEngine } from "../integrals/eri.ts";
 import { computeSchwarzFactors } from "../integrals/screening.ts";
 import type { ShellPair } from "../integrals/shell-pairs.ts";
-import { type GroupData, groupKernel } from "./jk-kernels.ts";
+import { digestBlock, type GroupData, groupKernel } from "./jk-kernels.ts";
 import type { PreparedBasis } from "../integrals/shells.ts";
 
 export interface JkOptions {
@@ -291,7 +291,7 @@ export class JkBuilder {
       if (one) {
         // the RHF path: shell data from typed arrays, no shell objects
         const sc = pHalf[b] * pHalf[k] * (b === k ? 0.5 : 1);
-        digestOne(blk, off, n, pA0[b], pB0[b], pA0[k], pB0[k], pNa[b], pNb[b], pNa[k], pNb[k], sc, D1, J, K1);
+        digestBlock(blk, off, n, pA0[b], pB0[b], pA0[k], pB0[k], pNa[b], pNb[b], pNa[k], pNb[k], sc, D1, J, K1);
       } else this.digest(pairs[b], pairs[k], blk, off, densities, Dt, J, K, nd, wantK);
     }
     this.stats.lastBuildQuartets = built;
@@ -317,7 +317,7 @@ export class JkBuilder {
 
   /**
    * One block into J only, or into J and the K of two densities (UHF, ROHF, stability), in a
-   * single pass; one density with K goes through digestOne. The innermost index d runs along rows of every
+   * single pass; one density with K goes through jk-kernels.ts. The innermost index d runs along rows of every
    * matrix it touches (J_cd, D_cd, D_ad, D_bd, K_ad, K_bd), so accesses are contiguous; the
    * other four updates are hoisted out of the d loop.
    */
@@ -379,58 +379,6 @@ export class JkBuilder {
         }
         J[ia + b0 + b] += s2 * jab;
       }
-    }
-  }
-}
-
-/**
- * digest() for one density with exchange (RHF) block by block, from plain numbers (s: the
- * block's symmetry scale): the direct path; blocks from the store go through jk-kernels.ts.
- */
-function digestOne(
-  blk: Float64Array, off: number, n: number, a0: number, b0: number, c0: number, d0: number,
-  na: number, nb: number, nc: number, ndd: number, s: number, D1: Float64Array, J: Float64Array, K1: Float64Array,
-): void {
-  const s2 = 2 * s;
-  if (na * nb * nc * ndd === 1) {
-    // (ss|ss), the most common block with hydrogen-rich molecules: no loops
-    const v = s * blk[off];
-    const ia = a0 * n, ib = b0 * n, ic = c0 * n;
-    J[ia + b0] += 2 * v * D1[ic + d0];
-    J[ic + d0] += 2 * v * D1[ia + b0];
-    K1[ia + c0] += v * D1[ib + d0];
-    K1[ib + c0] += v * D1[ia + d0];
-    K1[ia + d0] += v * D1[ib + c0];
-    K1[ib + d0] += v * D1[ia + c0];
-    return;
-  }
-  let k = off;
-  for (let a = 0; a < na; a++) {
-    const ia = (a0 + a) * n;
-    const iad = ia + d0;
-    for (let b = 0; b < nb; b++) {
-      const ib = (b0 + b) * n;
-      const ibd = ib + d0;
-      const dab = s2 * D1[ia + b0 + b];
-      let jab = 0;
-      for (let c = 0; c < nc; c++) {
-        const ic = (c0 + c) * n + d0;
-        const dbc = s * D1[ib + c0 + c], dac = s * D1[ia + c0 + c];
-        let kac = 0, kbc = 0;
-        for (let d = 0; d < ndd; d++) {
-          const v = blk[k + d];
-          jab += v * D1[ic + d];
-          J[ic + d] += v * dab;
-          kac += v * D1[ibd + d];
-          kbc += v * D1[iad + d];
-          K1[iad + d] += v * dbc;
-          K1[ibd + d] += v * dac;
-        }
-        K1[ia + c0 + c] += s * kac;
-        K1[ib + c0 + c] += s * kbc;
-        k += ndd;
-      }
-      J[ia + b0 + b] += s2 * jab;
     }
   }
 }
