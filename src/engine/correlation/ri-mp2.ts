@@ -8,7 +8,7 @@
  * integrals come from the ordinary ERI engine with a unit s function (exponent 0) as the
  * fourth shell.
  */
-import { matmul, matmulABt } from "../linalg/dense.ts";
+import { matmulABt } from "../linalg/dense.ts";
 import { EriEngine } from "../integrals/eri.ts";
 import type { ShellPair } from "../integrals/shell-pairs.ts";
 import type { PreparedBasis, PreparedShell } from "../integrals/shells.ts";
@@ -53,42 +53,61 @@ function cholesky(A: Float64Array, n: number): Float64Array {
   return L;
 }
 
-/**
- * Fitted factors per spin: B[i][a][Q] (occupied-major) for the active occupied and virtual
- * orbitals of the given coefficient matrix.
- */
-function fittedFactors(
-  A3: Float64Array, L: Float64Array, n: number, naux: number, C: Float64Array, m: number,
-  i0: number, i1: number, a0: number,
-): Float64Array {
+/** One spin's orbitals as the transformation reads them: Cᵀ over active occupied, C over virtual. */
+interface SpinBlock {
+  no: number;
+  nv: number;
+  /** Cot[i · n + μ] = C_μ,i0+i */
+  Cot: Float64Array;
+  /** Cvt[a · n + μ] = C_μ,a0+a */
+  Cvt: Float64Array;
+  /** I[P · no·nv + i · nv + a] = (ia|P), then the fitted B (before the transpose) */
+  I: Float64Array;
+}
+
+function spinBlock(C: Float64Array, n: number, m: number, i0: number, i1: number, a0: number, naux: number): SpinBlock {
   const no = i1 - i0, nv = m - a0;
-  const Co = new Float64Array(n * no);
-  const Cv = new Float64Array(n * nv);
-  for (let mu = 0; mu < n; mu++) {
-    for (let i = 0; i < no; i++) Co[mu * no + i] = C[mu * m + i0 + i];
-    for (let a = 0; a < nv; a++) Cv[mu * nv + a] = C[mu * m + a0 + a];
-  }
   const Cot = new Float64Array(no * n);
-  for (let mu = 0; mu < n; mu++) for (let i = 0; i < no; i++) Cot[i * n + mu] = Co[mu * no + i];
-  // I[P][i][a] = Σ_μν C_μi (μν|P) C_νa
-  const I = new Float64Array(naux * no * nv);
-  const M = new Float64Array(n * n);
-  const Z = new Float64Array(no * n);
-  const R = new Float64Array(no * nv);
-  const npair = (n * (n + 1)) / 2;
-  for (let P = 0; P < naux; P++) {
-    for (let l = 0, p = P * npair; l < n; l++)
-      for (let s = 0; s <= l; s++, p++) {
-        const v = A3[p];
-        M[l * n + s] = v;
-        M[s * n + l] = v;
-      }
-    matmul(Cot, M, no, n, n, Z);
-    matmul(Z, Cv, no, n, nv, R);
-    I.set(R, P * no * nv);
+  const Cvt = new Float64Array(nv * n);
+  for (let mu = 0; mu < n; mu++) {
+    for (let i = 0; i < no; i++) Cot[i * n + mu] = C[mu * m + i0 + i];
+    for (let a = 0; a < nv; a++) Cvt[a * n + mu] = C[mu * m + a0 + a];
   }
-  // B = L⁻¹ I by forward substitution over the fitting index
-  const ov = no * nv;
+  return { no, nv, Cot, Cvt, I: new Float64Array(naux * no * nv) };
+}
+
+/** Scratch of the per-fitting-function transformation, allocated once. */
+interface TransformScratch {
+  M: Float64Array<ArrayBuffer>;
+  Z: Float64Array<ArrayBuffer>;
+  R: Float64Array<ArrayBuffer>;
+}
+
+/**
+ * (ia|P) = Σ_μν C_μi (μν|P) C_νa for one fitting function P, from its packed (μν|P) (μ ≥ ν,
+ * packed[μ(μ+1)/2 + ν]), into every spin's I. Both products are row-by-row dot products
+ * (matmulABt; M is symmetric, so Cᵀ_occ M = Cᵀ_occ Mᵀ), the faster of the two kernels.
+ */
+function transformFunction(packed: Float64Array, pOff: number, P: number, n: number, spins: SpinBlock[], w: TransformScratch): void {
+  const M = w.M;
+  for (let l = 0, p = pOff; l < n; l++)
+    for (let s = 0; s <= l; s++, p++) {
+      const v = packed[p];
+      M[l * n + s] = v;
+      M[s * n + l] = v;
+    }
+  for (const sb of spins) {
+    matmulABt(sb.Cot, 0, M, 0, sb.no, n, n, w.Z);
+    matmulABt(w.Z, 0, sb.Cvt, 0, sb.no, n, sb.nv, w.R);
+    sb.I.set(w.R.subarray(0, sb.no * sb.nv), P * sb.no * sb.nv);
+  }
+}
+
+/**
+ * In place B = L⁻¹ I by forward substitution over the fitting index, then the transpose to
+ * B[i][a][Q] (occupied-major), which the pair energies read.
+ */
+function fitAndTranspose(I: Float64Array, L: Float64Array, naux: number, ov: number): Float64Array {
   for (let P = 0; P < naux; P++) {
     const row = P * ov;
     // four earlier rows per pass: one load and store of row P serves four multiply-adds
@@ -106,10 +125,35 @@ function fittedFactors(
     const d = 1 / L[P * naux + P];
     for (let k = 0; k < ov; k++) I[row + k] *= d;
   }
-  // to B[i][a][Q]
-  const B = new Float64Array(no * nv * naux);
+  const B = new Float64Array(ov * naux);
   for (let Q = 0; Q < naux; Q++) for (let k = 0; k < ov; k++) B[k * naux + Q] = I[Q * ov + k];
   return B;
+}
+
+/**
+ * One fitting shell's (μν|P) over the surviving orbital pairs, packed per fitting function:
+ * buf[f · npair + μ(μ+1)/2 + ν] for its functions f (zero where screened out).
+ */
+function threeCentreShell(
+  engine: EriEngine, orb: ShellPair[], orbBound: Float64Array, Q: ShellPair, qBound: number, npair: number, buf: Float64Array,
+): void {
+  const nf = Q.a.nfunc;
+  buf.fill(0, 0, nf * npair);
+  for (let x = 0; x < orb.length; x++) {
+    if (orbBound[x] * qBound < SCREEN) continue;
+    const PP = orb[x];
+    const blk = engine.compute(PP, Q);
+    const A = PP.a, B = PP.b;
+    const na = A.nfunc, nb = B.nfunc;
+    for (let a = 0, t = 0; a < na; a++) {
+      const mu = A.offset + a;
+      for (let b = 0; b < nb; b++) {
+        const nu = B.offset + b;
+        const pk = mu >= nu ? (mu * (mu + 1)) / 2 + nu : (nu * (nu + 1)) / 2 + mu;
+        for (let f = 0; f < nf; f++, t++) buf[f * npair + pk] = blk[t];
+      }
+    }
+  }
 }
 
 export function riMp2Energy(scf: ScfResult, options: RiMp2Options): RiMp2Energies {
@@ -137,7 +181,6 @@ export function riMp2Energy(scf: ScfResult, options: RiMp2Options): RiMp2Energie
     if (k !== unit) (s.offset < n ? orbIdx : auxIdx).push(k);
   });
   const npair = (n * (n + 1)) / 2;
-  const pk = (x: number, y: number) => (x >= y ? (x * (x + 1)) / 2 + y : (y * (y + 1)) / 2 + x);
   // Cauchy–Schwarz bounds: √(μν|μν) per orbital pair, √(P|P) per fitting shell
   const bound = (P: ShellPair) => {
     const blk = engine.compute(P, P);
@@ -149,25 +192,34 @@ export function riMp2Energy(scf: ScfResult, options: RiMp2Options): RiMp2Energie
   const auxPairs = auxIdx.map((k) => engine.pair(k, unit));
   const auxBound = auxPairs.map(bound);
   const auxMax = Math.max(...auxBound);
-  // (μν|P), μ ≥ ν packed, fitting-major (A3[P · npair + pair]) so that the transformation
-  // below reads each P's slice contiguously
-  const A3 = new Float64Array(npair * naux);
+  // the orbital pairs any fitting shell can reach, with their bounds
+  const orb: ShellPair[] = [];
+  const orbB: number[] = [];
   for (let x = 0; x < orbIdx.length; x++)
     for (let y = 0; y <= x; y++) {
       const PP = engine.pair(orbIdx[x], orbIdx[y]);
       const pb = bound(PP);
       if (pb * auxMax < SCREEN) continue;
-      for (let kk = 0; kk < auxIdx.length; kk++) {
-        if (pb * auxBound[kk] < SCREEN) continue;
-        const Q = auxPairs[kk];
-        const blk = engine.compute(PP, Q);
-        const A = PP.a, B = PP.b, F = Q.a;
-        let t = 0;
-        for (let a = 0; a < A.nfunc; a++)
-          for (let b = 0; b < B.nfunc; b++)
-            for (let f = 0; f < F.nfunc; f++, t++) A3[(F.offset - A0 + f) * npair + pk(A.offset + a, B.offset + b)] = blk[t];
-      }
+      orb.push(PP);
+      orbB.push(pb);
     }
+  const orbBound = Float64Array.from(orbB);
+  const nocc = [scf.nalpha, scf.nbeta];
+  const eps = [scf.orbitals.alpha.energies, (scf.orbitals.beta ?? scf.orbitals.alpha).energies];
+  const spins = scf.reference === "rhf" ? 1 : 2;
+  const sbs: SpinBlock[] = [];
+  for (let s = 0; s < spins; s++) sbs.push(spinBlock(scf.matrices.C[s], n, m, fc, nocc[s], nocc[s], naux));
+  // (μν|P) one fitting shell at a time, transformed at once: the three-index AO integrals are
+  // never held whole, and the batch buffer stays in cache
+  const maxNf = Math.max(...auxPairs.map((Q) => Q.a.nfunc));
+  const buf = new Float64Array(maxNf * npair);
+  const maxNo = Math.max(...sbs.map((sb) => sb.no)), maxNv = Math.max(...sbs.map((sb) => sb.nv));
+  const scratch: TransformScratch = { M: new Float64Array(n * n), Z: new Float64Array(maxNo * n), R: new Float64Array(maxNo * maxNv) };
+  for (let kk = 0; kk < auxPairs.length; kk++) {
+    const Q = auxPairs[kk];
+    threeCentreShell(engine, orb, orbBound, Q, auxBound[kk], npair, buf);
+    for (let f = 0; f < Q.a.nfunc; f++) transformFunction(buf, f * npair, Q.a.offset - A0 + f, n, sbs, scratch);
+  }
   // metric (P|Q)
   const V = new Float64Array(naux * naux);
   for (let x = 0; x < auxIdx.length; x++)
@@ -183,12 +235,9 @@ export function riMp2Energy(scf: ScfResult, options: RiMp2Options): RiMp2Energie
         }
     }
   const L = cholesky(V, naux);
-  const nocc = [scf.nalpha, scf.nbeta];
-  const eps = [scf.orbitals.alpha.energies, (scf.orbitals.beta ?? scf.orbitals.alpha).energies];
-  const spins = scf.reference === "rhf" ? 1 : 2;
-  const Bs: Float64Array[] = [];
-  for (let s = 0; s < spins; s++) Bs.push(fittedFactors(A3, L, n, naux, scf.matrices.C[s], m, fc, nocc[s], nocc[s]));
-  let peak = 8 * (A3.length + V.length + L.length);
+  let peak = 8 * (buf.length + V.length + L.length);
+  for (const sb of sbs) peak += 8 * (sb.I.length + sb.Cot.length + sb.Cvt.length);
+  const Bs = sbs.map((sb) => fitAndTranspose(sb.I, L, naux, sb.no * sb.nv));
   for (const B of Bs) peak += 8 * B.length;
 
   // pair energies from (ia|jb) = Σ_Q B_ia^Q B_jb^Q, one v × v block per (i, j)
