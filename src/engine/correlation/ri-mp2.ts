@@ -8,7 +8,7 @@
  * integrals come from the ordinary ERI engine with a unit s function (exponent 0) as the
  * fourth shell.
  */
-import { matmulABt } from "../linalg/dense.ts";
+import { dotWorkspace, type DotWorkspace } from "../linalg/simd.ts";
 import { EriEngine } from "../integrals/eri.ts";
 import type { ShellPair } from "../integrals/shell-pairs.ts";
 import type { PreparedBasis, PreparedShell } from "../integrals/shells.ts";
@@ -19,6 +19,8 @@ export interface RiMp2Options {
   frozen: number;
   /** the prepared fitting basis (same atoms as the orbital basis) */
   fitting: PreparedBasis;
+  /** false: the JavaScript dot kernel instead of the SIMD one (linalg/simd.ts; tests) */
+  simd?: boolean;
 }
 
 export interface RiMp2Energies extends Omit<Mp2Energies, "transform"> {
@@ -53,92 +55,120 @@ function cholesky(A: Float64Array, n: number): Float64Array {
   return L;
 }
 
-/** One spin's orbitals as the transformation reads them: Cᵀ over active occupied, C over virtual. */
+/**
+ * One spin's orbitals as the transformation reads them, at offsets (in doubles) of the dot
+ * workspace: Cᵀ over the active occupied, Cᵀ over the virtual orbitals.
+ */
 interface SpinBlock {
   no: number;
   nv: number;
-  /** Cot[i · n + μ] = C_μ,i0+i */
-  Cot: Float64Array;
-  /** Cvt[a · n + μ] = C_μ,a0+a */
-  Cvt: Float64Array;
-  /** I[P · no·nv + i · nv + a] = (ia|P), then the fitted B (before the transpose) */
-  I: Float64Array;
+  /** ws[cot + i · n + μ] = C_μ,i0+i */
+  cot: number;
+  /** ws[cvt + a · n + μ] = C_μ,a0+a */
+  cvt: number;
+  /** (ia|Q), then in place the fitted factors B[i][a][Q]: ws[b + (i · nv + a) · naux + Q] */
+  b: number;
 }
 
-function spinBlock(C: Float64Array, n: number, m: number, i0: number, i1: number, a0: number, naux: number): SpinBlock {
-  const no = i1 - i0, nv = m - a0;
-  const Cot = new Float64Array(no * n);
-  const Cvt = new Float64Array(nv * n);
+/**
+ * The workspace layout: per spin its C blocks and factors, then one pair block T, the metric's
+ * Cholesky factor L, one fitting shell's (μν|P) as full n × n matrices (sq), the
+ * transformation's Z (occupied × n) and R (occupied × virtual), and the fitting's panel.
+ */
+interface Layout {
+  spins: SpinBlock[];
+  t: number;
+  l: number;
+  sq: number;
+  z: number;
+  r: number;
+  panel: number;
+  doubles: number;
+}
+
+/** Columns of the fitting per panel (fit): wide enough for the kernel, narrow for the solve. */
+const PANEL = 32;
+
+function layout(n: number, m: number, naux: number, fc: number, nocc: number[], maxNf: number): Layout {
+  let at = 0;
+  const take = (d: number) => {
+    const o = at;
+    at += d;
+    return o;
+  };
+  const spins = nocc.map((no1) => {
+    const no = no1 - fc, nv = m - no1;
+    return { no, nv, cot: take(no * n), cvt: take(nv * n), b: take(no * nv * naux) };
+  });
+  const maxNo = Math.max(...spins.map((x) => x.no)), maxNv = Math.max(...spins.map((x) => x.nv));
+  return {
+    spins, t: take(maxNv * maxNv), l: take(naux * naux), sq: take(maxNf * n * n), z: take(maxNo * n), r: take(maxNo * maxNv),
+    panel: take(maxNo * maxNv * PANEL), doubles: at,
+  };
+}
+
+function fillOrbitals(ws: DotWorkspace, sb: SpinBlock, C: Float64Array, n: number, m: number, i0: number, a0: number): void {
+  const f = ws.f64;
   for (let mu = 0; mu < n; mu++) {
-    for (let i = 0; i < no; i++) Cot[i * n + mu] = C[mu * m + i0 + i];
-    for (let a = 0; a < nv; a++) Cvt[a * n + mu] = C[mu * m + a0 + a];
+    for (let i = 0; i < sb.no; i++) f[sb.cot + i * n + mu] = C[mu * m + i0 + i];
+    for (let a = 0; a < sb.nv; a++) f[sb.cvt + a * n + mu] = C[mu * m + a0 + a];
   }
-  return { no, nv, Cot, Cvt, I: new Float64Array(naux * no * nv) };
-}
-
-/** Scratch of the per-fitting-function transformation, allocated once. */
-interface TransformScratch {
-  M: Float64Array<ArrayBuffer>;
-  Z: Float64Array<ArrayBuffer>;
-  R: Float64Array<ArrayBuffer>;
 }
 
 /**
- * (ia|P) = Σ_μν C_μi (μν|P) C_νa for one fitting function P, from its packed (μν|P) (μ ≥ ν,
- * packed[μ(μ+1)/2 + ν]), into every spin's I. Both products are row-by-row dot products
- * (matmulABt; M is symmetric, so Cᵀ_occ M = Cᵀ_occ Mᵀ), the faster of the two kernels.
+ * (ia|P) = Σ_μν C_μi (μν|P) C_νa for one fitting function P from its full (μν|P) matrix at
+ * ws[mat …], into column P of every spin's factors. Both products are row-by-row dot products
+ * (the matrix is symmetric, so Cᵀ_occ M = Cᵀ_occ Mᵀ), which the SIMD kernel does.
  */
-function transformFunction(packed: Float64Array, pOff: number, P: number, n: number, spins: SpinBlock[], w: TransformScratch): void {
-  const M = w.M;
-  for (let l = 0, p = pOff; l < n; l++)
-    for (let s = 0; s <= l; s++, p++) {
-      const v = packed[p];
-      M[l * n + s] = v;
-      M[s * n + l] = v;
-    }
-  for (const sb of spins) {
-    matmulABt(sb.Cot, 0, M, 0, sb.no, n, n, w.Z);
-    matmulABt(w.Z, 0, sb.Cvt, 0, sb.no, n, sb.nv, w.R);
-    sb.I.set(w.R.subarray(0, sb.no * sb.nv), P * sb.no * sb.nv);
+function transformFunction(mat: number, P: number, n: number, naux: number, ws: DotWorkspace, lay: Layout): void {
+  const f = ws.f64, r = lay.r;
+  for (const sb of lay.spins) {
+    ws.abt(sb.cot, mat, sb.no, n, n, lay.z);
+    ws.abt(lay.z, sb.cvt, sb.no, n, sb.nv, r);
+    const ov = sb.no * sb.nv;
+    for (let k = 0, at = sb.b + P; k < ov; k++, at += naux) f[at] = f[r + k];
   }
 }
 
 /**
- * In place B = L⁻¹ I by forward substitution over the fitting index, then the transpose to
- * B[i][a][Q] (occupied-major), which the pair energies read.
+ * In place, row by row of the factors X (ov rows of naux): X ← X L⁻ᵀ, i.e. L x = (ia|·) for
+ * each ia, by forward substitution in panels of PANEL columns: what earlier panels contribute
+ * is one kernel product per panel, and only the small triangle inside a panel is solved here.
  */
-function fitAndTranspose(I: Float64Array, L: Float64Array, naux: number, ov: number): Float64Array {
-  for (let P = 0; P < naux; P++) {
-    const row = P * ov;
-    // four earlier rows per pass: one load and store of row P serves four multiply-adds
-    let Q = 0;
-    for (; Q + 4 <= P; Q += 4) {
-      const l0 = L[P * naux + Q], l1 = L[P * naux + Q + 1], l2 = L[P * naux + Q + 2], l3 = L[P * naux + Q + 3];
-      const q0 = Q * ov, q1 = q0 + ov, q2 = q1 + ov, q3 = q2 + ov;
-      for (let k = 0; k < ov; k++) I[row + k] -= l0 * I[q0 + k] + l1 * I[q1 + k] + l2 * I[q2 + k] + l3 * I[q3 + k];
+function fit(ws: DotWorkspace, lay: Layout, x: number, ov: number, naux: number): void {
+  const f = ws.f64, L = lay.l, pan = lay.panel;
+  for (let p0 = 0; p0 < naux; p0 += PANEL) {
+    const w = Math.min(PANEL, naux - p0);
+    if (p0 > 0) {
+      // panel[k][q] = Σ_{P<p0} X[k][P] L[p0+q][P]
+      ws.abt(x, L + p0 * naux, ov, p0, w, pan, naux, naux, w);
+      for (let k = 0; k < ov; k++) {
+        const row = x + k * naux + p0, pr = pan + k * w;
+        for (let q = 0; q < w; q++) f[row + q] -= f[pr + q];
+      }
     }
-    for (; Q < P; Q++) {
-      const l = L[P * naux + Q];
-      const rq = Q * ov;
-      for (let k = 0; k < ov; k++) I[row + k] -= l * I[rq + k];
+    for (let k = 0; k < ov; k++) {
+      const row = x + k * naux;
+      for (let P = p0; P < p0 + w; P++) {
+        let v = f[row + P];
+        const lr = L + P * naux;
+        for (let Q = p0; Q < P; Q++) v -= f[lr + Q] * f[row + Q];
+        f[row + P] = v / f[lr + P];
+      }
     }
-    const d = 1 / L[P * naux + P];
-    for (let k = 0; k < ov; k++) I[row + k] *= d;
   }
-  const B = new Float64Array(ov * naux);
-  for (let Q = 0; Q < naux; Q++) for (let k = 0; k < ov; k++) B[k * naux + Q] = I[Q * ov + k];
-  return B;
 }
 
 /**
- * One fitting shell's (μν|P) over the surviving orbital pairs, packed per fitting function:
- * buf[f · npair + μ(μ+1)/2 + ν] for its functions f (zero where screened out).
+ * One fitting shell's (μν|P) over the surviving orbital pairs as full symmetric n × n matrices,
+ * one per fitting function f: ws[sq + f · n² + μ · n + ν] (zero where screened out).
  */
 function threeCentreShell(
-  engine: EriEngine, orb: ShellPair[], orbBound: Float64Array, Q: ShellPair, qBound: number, npair: number, buf: Float64Array,
+  engine: EriEngine, orb: ShellPair[], orbBound: Float64Array, Q: ShellPair, qBound: number, n: number, ws: DotWorkspace, sq: number,
 ): void {
-  const nf = Q.a.nfunc;
-  buf.fill(0, 0, nf * npair);
+  const nf = Q.a.nfunc, nn = n * n;
+  const W = ws.f64;
+  W.fill(0, sq, sq + nf * nn);
   for (let x = 0; x < orb.length; x++) {
     if (orbBound[x] * qBound < SCREEN) continue;
     const PP = orb[x];
@@ -149,8 +179,11 @@ function threeCentreShell(
       const mu = A.offset + a;
       for (let b = 0; b < nb; b++) {
         const nu = B.offset + b;
-        const pk = mu >= nu ? (mu * (mu + 1)) / 2 + nu : (nu * (nu + 1)) / 2 + mu;
-        for (let f = 0; f < nf; f++, t++) buf[f * npair + pk] = blk[t];
+        const u = sq + mu * n + nu, v = sq + nu * n + mu;
+        for (let f = 0; f < nf; f++, t++) {
+          W[u + f * nn] = blk[t];
+          W[v + f * nn] = blk[t];
+        }
       }
     }
   }
@@ -180,7 +213,6 @@ export function riMp2Energy(scf: ScfResult, options: RiMp2Options): RiMp2Energie
   es.forEach((s, k) => {
     if (k !== unit) (s.offset < n ? orbIdx : auxIdx).push(k);
   });
-  const npair = (n * (n + 1)) / 2;
   // Cauchy–Schwarz bounds: √(μν|μν) per orbital pair, √(P|P) per fitting shell
   const bound = (P: ShellPair) => {
     const blk = engine.compute(P, P);
@@ -192,33 +224,39 @@ export function riMp2Energy(scf: ScfResult, options: RiMp2Options): RiMp2Energie
   const auxPairs = auxIdx.map((k) => engine.pair(k, unit));
   const auxBound = auxPairs.map(bound);
   const auxMax = Math.max(...auxBound);
-  // the orbital pairs any fitting shell can reach, with their bounds
-  const orb: ShellPair[] = [];
-  const orbB: number[] = [];
+  // the orbital pairs any fitting shell can reach, with their bounds: the SCF's own when its
+  // engine has the same shells (it computed them exactly), else computed here
+  const scfEngine = scf.matrices.jk.engine;
+  const same = scfEngine.shells.length === orbIdx.length && orbIdx.every((k, i) => {
+    const a = es[k], b = scfEngine.shells[i];
+    return a.offset === b.offset && a.nfunc === b.nfunc && a.l === b.l && a.atom === b.atom;
+  });
+  const orb: { P: ShellPair; b: number }[] = [];
   for (let x = 0; x < orbIdx.length; x++)
     for (let y = 0; y <= x; y++) {
       const PP = engine.pair(orbIdx[x], orbIdx[y]);
-      const pb = bound(PP);
+      const known = same ? scfEngine.pairs[scfEngine.pairIndex(x, y)]?.schwarz : undefined;
+      const pb = known !== undefined && Number.isFinite(known) ? known : bound(PP);
       if (pb * auxMax < SCREEN) continue;
-      orb.push(PP);
-      orbB.push(pb);
+      orb.push({ P: PP, b: pb });
     }
-  const orbBound = Float64Array.from(orbB);
+  // pairs of one type together, so that consecutive quartets share their integral class
+  orb.sort((u, v) => u.P.lkey - v.P.lkey || u.P.nprim - v.P.nprim);
+  const orbPairs = orb.map((o) => o.P);
+  const orbBound = Float64Array.from(orb, (o) => o.b);
   const nocc = [scf.nalpha, scf.nbeta];
   const eps = [scf.orbitals.alpha.energies, (scf.orbitals.beta ?? scf.orbitals.alpha).energies];
   const spins = scf.reference === "rhf" ? 1 : 2;
-  const sbs: SpinBlock[] = [];
-  for (let s = 0; s < spins; s++) sbs.push(spinBlock(scf.matrices.C[s], n, m, fc, nocc[s], nocc[s], naux));
-  // (μν|P) one fitting shell at a time, transformed at once: the three-index AO integrals are
-  // never held whole, and the batch buffer stays in cache
   const maxNf = Math.max(...auxPairs.map((Q) => Q.a.nfunc));
-  const buf = new Float64Array(maxNf * npair);
-  const maxNo = Math.max(...sbs.map((sb) => sb.no)), maxNv = Math.max(...sbs.map((sb) => sb.nv));
-  const scratch: TransformScratch = { M: new Float64Array(n * n), Z: new Float64Array(maxNo * n), R: new Float64Array(maxNo * maxNv) };
+  const lay = layout(n, m, naux, fc, nocc.slice(0, spins), maxNf);
+  const ws = dotWorkspace(lay.doubles, { simd: options.simd });
+  lay.spins.forEach((sb, s) => fillOrbitals(ws, sb, scf.matrices.C[s], n, m, fc, nocc[s]));
+  // (μν|P) one fitting shell at a time, transformed at once: the three-index AO integrals are
+  // never held whole
   for (let kk = 0; kk < auxPairs.length; kk++) {
     const Q = auxPairs[kk];
-    threeCentreShell(engine, orb, orbBound, Q, auxBound[kk], npair, buf);
-    for (let f = 0; f < Q.a.nfunc; f++) transformFunction(buf, f * npair, Q.a.offset - A0 + f, n, sbs, scratch);
+    threeCentreShell(engine, orbPairs, orbBound, Q, auxBound[kk], n, ws, lay.sq);
+    for (let f = 0; f < Q.a.nfunc; f++) transformFunction(lay.sq + f * n * n, Q.a.offset - A0 + f, n, naux, ws, lay);
   }
   // metric (P|Q)
   const V = new Float64Array(naux * naux);
@@ -234,30 +272,29 @@ export function riMp2Energy(scf: ScfResult, options: RiMp2Options): RiMp2Energie
           V[j * naux + i] = blk[a * Q.a.nfunc + c];
         }
     }
-  const L = cholesky(V, naux);
-  let peak = 8 * (buf.length + V.length + L.length);
-  for (const sb of sbs) peak += 8 * (sb.I.length + sb.Cot.length + sb.Cvt.length);
-  const Bs = sbs.map((sb) => fitAndTranspose(sb.I, L, naux, sb.no * sb.nv));
-  for (const B of Bs) peak += 8 * B.length;
+  ws.f64.set(cholesky(V, naux), lay.l);
+  const peak = 8 * (2 * V.length + lay.doubles);
+  for (const sb of lay.spins) fit(ws, lay, sb.b, sb.no * sb.nv, naux);
 
-  // pair energies from (ia|jb) = Σ_Q B_ia^Q B_jb^Q, one v × v block per (i, j)
-  const maxv = Math.max(m - nocc[0], m - nocc[1]);
-  const Tbuf = new Float64Array(maxv * maxv);
-  // T[a][b] = (ia|jb) = Σ_Q B[i][a][Q] B[j][b][Q]
-  const pairBlock = (Bi: Float64Array, i: number, Bj: Float64Array, j: number, nvi: number, nvj: number) =>
-    matmulABt(Bi, i * nvi * naux, Bj, j * nvj * naux, nvi, naux, nvj, Tbuf);
+  // pair energies from (ia|jb) = Σ_Q B_ia^Q B_jb^Q, one v × v block per (i, j):
+  // T[a][b] = ws[t + a · nvj + b] = Σ_Q B[i][a][Q] B[j][b][Q]
+  const W = ws.f64, t0 = lay.t;
+  const pairBlock = (si: number, i: number, sj: number, j: number) => {
+    const x = lay.spins[si], y = lay.spins[sj];
+    ws.abt(x.b + i * x.nv * naux, y.b + j * y.nv * naux, x.nv, naux, y.nv, t0);
+  };
   let os = 0, ss = 0;
   if (spins === 1) {
-    const B = Bs[0], e = eps[0];
+    const e = eps[0];
     const no = nocc[0] - fc, nv = m - nocc[0];
     for (let i = 0; i < no; i++)
       for (let j = 0; j <= i; j++) {
-        const T = pairBlock(B, i, B, j, nv, nv);
+        pairBlock(0, i, 0, j);
         const f = i === j ? 1 : 2;
         const eij = e[fc + i] + e[fc + j];
         for (let a = 0; a < nv; a++)
           for (let b = 0; b < nv; b++) {
-            const t = T[a * nv + b], u = T[b * nv + a];
+            const t = W[t0 + a * nv + b], u = W[t0 + b * nv + a];
             const d = eij - e[nocc[0] + a] - e[nocc[0] + b];
             os += (f * t * t) / d;
             ss += (f * t * (t - u)) / d;
@@ -265,16 +302,16 @@ export function riMp2Energy(scf: ScfResult, options: RiMp2Options): RiMp2Energie
       }
   } else {
     for (let s = 0; s < 2; s++) {
-      const B = Bs[s], e = eps[s];
+      const e = eps[s];
       const no = nocc[s] - fc, nv = m - nocc[s];
       for (let i = 0; i < no; i++)
         for (let j = 0; j < i; j++) {
-          const T = pairBlock(B, i, B, j, nv, nv);
+          pairBlock(s, i, s, j);
           const eij = e[fc + i] + e[fc + j];
           // ¼ Σ_ijab over all i, j = ½ Σ_{i>j} Σ_ab
           for (let a = 0; a < nv; a++)
             for (let b = 0; b < nv; b++) {
-              const t = T[a * nv + b] - T[b * nv + a];
+              const t = W[t0 + a * nv + b] - W[t0 + b * nv + a];
               ss += (0.5 * t * t) / (eij - e[nocc[s] + a] - e[nocc[s] + b]);
             }
         }
@@ -282,11 +319,11 @@ export function riMp2Energy(scf: ScfResult, options: RiMp2Options): RiMp2Energie
     const noa = nocc[0] - fc, nob = nocc[1] - fc, nva = m - nocc[0], nvb = m - nocc[1];
     for (let i = 0; i < noa; i++)
       for (let j = 0; j < nob; j++) {
-        const T = pairBlock(Bs[0], i, Bs[1], j, nva, nvb);
+        pairBlock(0, i, 1, j);
         const eij = eps[0][fc + i] + eps[1][fc + j];
         for (let a = 0; a < nva; a++)
           for (let b = 0; b < nvb; b++) {
-            const t = T[a * nvb + b];
+            const t = W[t0 + a * nvb + b];
             os += (t * t) / (eij - eps[0][nocc[0] + a] - eps[1][nocc[1] + b]);
           }
       }

@@ -8,6 +8,11 @@ import { fileURLToPath } from "node:url";
 import { describe, expect, it } from "vitest";
 import { parseXyz } from "../../../src/engine/molecule.ts";
 import { run, type RunInput } from "../../../src/engine/run.ts";
+import { buildBasis } from "../../../src/engine/basis/index.ts";
+import { riMp2Energy } from "../../../src/engine/correlation/ri-mp2.ts";
+import { prepareShells } from "../../../src/engine/integrals/shells.ts";
+import { runScf } from "../../../src/engine/scf/scf.ts";
+import { scfProblem } from "../scf/helpers.ts";
 
 const geometry = (name: string) =>
   parseXyz(readFileSync(fileURLToPath(new URL(`../../bench/geometries/${name}.xyz`, import.meta.url)), "utf8"), { units: "angstrom" }).atoms;
@@ -43,6 +48,18 @@ describe("RI-MP2", () => {
     const u = run({ ...base, reference: "uhf" }).mp2;
     if (!r?.valid || !u?.valid) throw new Error("no MP2 result");
     expect(Math.abs(r.correlation - u.correlation)).toBeLessThan(1e-10);
+  });
+
+  it("gives the same energies with the SIMD and the JavaScript dot kernels (1e-12 Eh), RHF and UHF", () => {
+    for (const [name, multiplicity, reference] of [["water", 1, "rhf"], ["oh_radical", 2, "uhf"]] as const) {
+      const problem = scfProblem(geometry(name), "cc-pVDZ", reference, { multiplicity });
+      const scf = runScf(problem);
+      const fitting = prepareShells(buildBasis(geometry(name).map((a) => ({ symbol: a.symbol, xyz: a.xyz })), "cc-pVDZ-RIFIT", "auto").shells);
+      const simd = riMp2Energy(scf, { frozen: 1, fitting });
+      const plain = riMp2Energy(scf, { frozen: 1, fitting, simd: false });
+      expect(Math.abs(simd.correlation - plain.correlation)).toBeLessThan(1e-12);
+      expect(Math.abs(simd.same_spin - plain.same_spin)).toBeLessThan(1e-12);
+    }
   });
 
   it("asks for a fitting basis when the orbital basis has no default one", () => {
