@@ -84,12 +84,20 @@ class SimdWorkspace implements DotWorkspace {
     this.f64 = new Float64Array(this.memory.buffer);
   }
   abt(a: number, b: number, n: number, k: number, m: number, c: number, lda = k, ldb = k, ldc = m): void {
-    this.dot(a * 8, b * 8, n, k, m, c * 8, lda, ldb, ldc);
-    // the row and column left over from the 2 × 2 blocks, in JavaScript
-    const f = this.f64;
     const n2 = n - (n % 2), m2 = m - (m % 2);
-    if (m2 < m) for (let i = 0; i < n; i++) f[c + i * ldc + m - 1] = dotRows(f, a + i * lda, b + (m - 1) * ldb, k);
-    if (n2 < n) for (let j = 0; j < m2; j++) f[c + (n - 1) * ldc + j] = dotRows(f, a + (n - 1) * lda, b + j * ldb, k);
+    const A = a * 8, B = b * 8, Cc = c * 8;
+    this.dot(A, B, n2, k, m2, Cc, lda, ldb, ldc);
+    // an odd last row or column: the kernel again on the last two (the one before is recomputed
+    // to the same values), so that it, too, runs two doubles per instruction
+    const lastRow = n2 < n && n >= 2, lastCol = m2 < m && m >= 2;
+    if (lastRow) this.dot(A + (n - 2) * lda * 8, B, 2, k, m2, Cc + (n - 2) * ldc * 8, lda, ldb, ldc);
+    if (lastCol) this.dot(A, B + (m - 2) * ldb * 8, n2, k, 2, Cc + (m - 2) * 8, lda, ldb, ldc);
+    if (lastRow && lastCol) this.dot(A + (n - 2) * lda * 8, B + (m - 2) * ldb * 8, 2, k, 2, Cc + ((n - 2) * ldc + m - 2) * 8, lda, ldb, ldc);
+    if (n === 1 || m === 1) {
+      const f = this.f64;
+      for (let i = 0; i < n; i++)
+        for (let j = 0; j < m; j++) f[c + i * ldc + j] = dotRows(f, a + i * lda, b + j * ldb, k);
+    }
   }
 }
 

@@ -232,6 +232,44 @@ export class JkBuilder {
     }
   }
 
+  /** per shell pair, the quartets it is part of (CSR over pair indices; made on first use) */
+  private byPair: { start: Int32Array; q: Int32Array } | null = null;
+
+  /**
+   * Every surviving unique quartet that has shell pair `pair` (engine pair index) as its bra or
+   * its ket, as forEachBlock gives them; `visit` sees the stored orientation (P ≥ Q), so the
+   * pair is P, Q or both. Direct mode recomputes each block, so a sweep over all pairs computes
+   * every quartet twice.
+   */
+  forEachBlockOfPair(pair: number, visit: (P: ShellPair, Q: ShellPair, blk: Float64Array, off: number) => void): void {
+    const idx = this.byPair ?? (this.byPair = this.pairIndexOfQuartets());
+    const pairs = this.engine.pairs;
+    for (let t = idx.start[pair]; t < idx.start[pair + 1]; t++) {
+      const q = idx.q[t];
+      const P = pairs[this.qBra[q]];
+      const Q = pairs[this.qKet[q]];
+      if (this.qChunk !== null) visit(P, Q, this.chunks[this.qChunk[q]], this.qOff![q]);
+      else visit(P, Q, this.engine.compute(P, Q), 0);
+    }
+  }
+
+  private pairIndexOfQuartets(): { start: Int32Array; q: Int32Array } {
+    const np = this.engine.pairs.length, nq = this.qBra.length;
+    const start = new Int32Array(np + 1);
+    for (let q = 0; q < nq; q++) {
+      start[this.qBra[q] + 1]++;
+      if (this.qKet[q] !== this.qBra[q]) start[this.qKet[q] + 1]++;
+    }
+    for (let p = 0; p < np; p++) start[p + 1] += start[p];
+    const next = start.slice(0, np);
+    const list = new Int32Array(start[np]);
+    for (let q = 0; q < nq; q++) {
+      list[next[this.qBra[q]]++] = q;
+      if (this.qKet[q] !== this.qBra[q]) list[next[this.qKet[q]]++] = q;
+    }
+    return { start, q: list };
+  }
+
   /**
    * J (of the sum of the densities) and K (of each density) for symmetric densities.
    * `wantK` false skips exchange. Results are new nbf × nbf arrays.
