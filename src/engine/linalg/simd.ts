@@ -1,7 +1,6 @@
 /**
  * C = A·Bᵀ (dot products of contiguous rows, as dense.ts `matmulABt`) with two doubles per
- * instruction: a WebAssembly module with 128-bit SIMD, assembled here from a few dozen opcodes
- * at first use. Scalar JavaScript reaches about two floating-point operations per cycle; the
+ * instruction: a WebAssembly module with 128-bit SIMD, assembled here (wasm.ts) at first use. Scalar JavaScript reaches about two floating-point operations per cycle; the
  * SIMD kernel does a 2 × 2 block of rows with f64x2 multiply-adds. It works on a Float64Array
  * view of its own memory (a `DotWorkspace`), so callers place their operands there.
  *
@@ -10,6 +9,9 @@
  * lanes sum the even and the odd terms separately.
  */
 import { matmulABt } from "./dense.ts";
+import {
+  block, compileModule, F64, f64c, f64load, f64store, get, I32, i32c, loop, moduleBytes, op, set, V128, vadd, vlane, vload, vmul, vzero,
+} from "./wasm.ts";
 
 /** A memory of doubles with C = A·Bᵀ on offsets into it. */
 export interface DotWorkspace {
@@ -111,132 +113,70 @@ let cached: WebAssembly.Module | null | undefined;
 
 /** The compiled module, or null where WebAssembly SIMD cannot be used. */
 function simdModule(): WebAssembly.Module | null {
-  if (cached !== undefined) return cached;
-  cached = null;
-  try {
-    if (typeof WebAssembly === "object") {
-      const bytes = assembleDotModule();
-      if (WebAssembly.validate(bytes)) cached = new WebAssembly.Module(bytes);
-    }
-  } catch {
-    cached = null;
-  }
+  if (cached === undefined) cached = compileModule(assembleDotModule());
   return cached;
 }
 
-// ---- a minimal assembler for the one function ----------------------------------------------
-
-const I32 = 0x7f, V128 = 0x7b;
-
-function uleb(n: number): number[] {
-  const out: number[] = [];
-  do {
-    let b = n & 0x7f;
-    n >>>= 7;
-    if (n !== 0) b |= 0x80;
-    out.push(b);
-  } while (n !== 0);
-  return out;
-}
-
-function sleb(n: number): number[] {
-  const out: number[] = [];
-  for (;;) {
-    const b = n & 0x7f;
-    n >>= 7;
-    if ((n === 0 && (b & 0x40) === 0) || (n === -1 && (b & 0x40) !== 0)) {
-      out.push(b);
-      return out;
-    }
-    out.push(b | 0x80);
-  }
-}
-
-const str = (s: string) => [...uleb(s.length), ...[...s].map((c) => c.charCodeAt(0))];
-const section = (id: number, body: number[]) => [id, ...uleb(body.length), ...body];
-
 /**
- * The `dot(a, b, n, k, m, c, lda, ldb, ldc)` function (byte addresses a, b, c; counts n, k, m;
- * row strides in doubles): for every
- * 2 × 2 block of rows (i, i+1) of A and (j, j+1) of B, four f64x2 sums over k in steps of two,
- * each reduced to its two lanes, plus the last term when k is odd.
+ * The `dot(a, b, n, k, m, c, lda, ldb, ldc)` function (byte addresses a, b, c; counts n, k, m
+ * with n and m even; row strides in doubles): for every 2 × 2 block of rows (i, i+1) of A and
+ * (j, j+1) of B, four f64x2 sums over k in steps of two, each reduced to its two lanes, plus the
+ * last term when k is odd.
  */
 function assembleDotModule(): Uint8Array<ArrayBuffer> {
   // params 0–8: a b n k m c lda ldb ldc; i32 locals from 9, v128 locals after
   const [a, b, n, k, m, c, lda, ldb, ldc] = [0, 1, 2, 3, 4, 5, 6, 7, 8];
   const [i, j, p, ra0, ra1, rb0, rb1, la, lb, k2b, cij, lc] = [9, 10, 11, 12, 13, 14, 15, 16, 17, 18, 19, 20];
   const [s00, s01, s10, s11, x0, x1, y0, y1] = [21, 22, 23, 24, 25, 26, 27, 28];
-  const get = (x: number) => [0x20, ...uleb(x)];
-  const set = (x: number) => [0x21, ...uleb(x)];
-  const i32c = (v: number) => [0x41, ...sleb(v)];
-  const add = 0x6a, mul = 0x6c, geS = 0x4e, and = 0x71, gtS = 0x4a;
-  const simd = (op: number, ...imm: number[]) => [0xfd, ...uleb(op), ...imm];
-  const memarg = [3, 0]; // alignment 2³ bytes, offset 0
-  const vload = simd(0x00, ...memarg);
-  const vzero = simd(0x0c, ...new Array(16).fill(0));
-  const fadd = simd(0xf0), fmul = simd(0xf2);
-  const lane = (l: number) => simd(0x21, l);
-  const f64load = [0x2b, ...memarg], f64store = [0x39, ...memarg];
-  const f64add = 0xa0, f64mul = 0xa2;
+  const { i32add: add, i32mul: mul, i32geS: geS, i32and: and, i32gtS: gtS, i32shl: shl, f64add, f64mul } = op;
   // s += x * y
-  const fma = (s: number, xv: number, yv: number) => [...get(s), ...get(xv), ...get(yv), ...fmul, ...fadd, ...set(s)];
+  const fma = (s: number, xv: number, yv: number) => [...get(s), ...get(xv), ...get(yv), ...vmul, ...vadd, ...set(s)];
   // the two lanes of s plus, when k is odd, the last products A[r + k−1]·B[q + k−1]
   const reduce = (s: number, r: number, q: number) => [
-    ...get(s), ...lane(0), ...get(s), ...lane(1), f64add,
+    ...get(s), ...vlane(0), ...get(s), ...vlane(1), f64add,
     ...get(k), ...i32c(1), and,
-    0x04, 0x7c, // if (result f64)
-    ...get(r), ...get(k2b), add, ...f64load, ...get(q), ...get(k2b), add, ...f64load, f64mul,
-    0x05, 0x44, 0, 0, 0, 0, 0, 0, 0, 0, // else 0.0
-    0x0b, f64add,
+    0x04, F64, // if (result f64)
+    ...get(r), ...get(k2b), add, ...f64load(), ...get(q), ...get(k2b), add, ...f64load(), f64mul,
+    op.else, ...f64c(0),
+    op.end, f64add,
   ];
   const body = [
     // byte strides la = 8·lda, lb = 8·ldb, lc = 8·ldc; k2b = 8(k & ~1)
-    ...get(lda), ...i32c(3), 0x74, ...set(la),
-    ...get(ldb), ...i32c(3), 0x74, ...set(lb),
-    ...get(ldc), ...i32c(3), 0x74, ...set(lc),
-    ...get(k), ...i32c(-2), and, ...i32c(3), 0x74, ...set(k2b),
+    ...get(lda), ...i32c(3), shl, ...set(la),
+    ...get(ldb), ...i32c(3), shl, ...set(lb),
+    ...get(ldc), ...i32c(3), shl, ...set(lc),
+    ...get(k), ...i32c(-2), and, ...i32c(3), shl, ...set(k2b),
     ...i32c(0), ...set(i),
-    0x02, 0x40, 0x03, 0x40, // block loop (rows of A)
-    ...get(i), ...i32c(2), add, ...get(n), gtS, 0x0d, 1,
-    ...get(a), ...get(i), ...get(la), mul, add, ...set(ra0),
-    ...get(ra0), ...get(la), add, ...set(ra1),
-    ...i32c(0), ...set(j),
-    0x02, 0x40, 0x03, 0x40, // block loop (rows of B)
-    ...get(j), ...i32c(2), add, ...get(m), gtS, 0x0d, 1,
-    ...get(b), ...get(j), ...get(lb), mul, add, ...set(rb0),
-    ...get(rb0), ...get(lb), add, ...set(rb1),
-    ...vzero, ...set(s00), ...vzero, ...set(s01), ...vzero, ...set(s10), ...vzero, ...set(s11),
-    ...i32c(0), ...set(p),
-    0x02, 0x40, 0x03, 0x40, // block loop (k in pairs)
-    ...get(p), ...get(k2b), geS, 0x0d, 1,
-    ...get(ra0), ...get(p), add, ...vload, ...set(x0),
-    ...get(ra1), ...get(p), add, ...vload, ...set(x1),
-    ...get(rb0), ...get(p), add, ...vload, ...set(y0),
-    ...get(rb1), ...get(p), add, ...vload, ...set(y1),
-    ...fma(s00, x0, y0), ...fma(s01, x0, y1), ...fma(s10, x1, y0), ...fma(s11, x1, y1),
-    ...get(p), ...i32c(16), add, ...set(p),
-    0x0c, 0, 0x0b, 0x0b, // br loop; end loop; end block
-    // cij = c + 8(i·ldc + j)
-    ...get(c), ...get(i), ...get(ldc), mul, ...get(j), add, ...i32c(3), 0x74, add, ...set(cij),
-    ...get(cij), ...reduce(s00, ra0, rb0), ...f64store,
-    ...get(cij), ...i32c(8), add, ...reduce(s01, ra0, rb1), ...f64store,
-    ...get(cij), ...get(lc), add, ...reduce(s10, ra1, rb0), ...f64store,
-    ...get(cij), ...get(lc), add, ...i32c(8), add, ...reduce(s11, ra1, rb1), ...f64store,
-    ...get(j), ...i32c(2), add, ...set(j),
-    0x0c, 0, 0x0b, 0x0b,
-    ...get(i), ...i32c(2), add, ...set(i),
-    0x0c, 0, 0x0b, 0x0b,
-    0x0b, // end function
+    ...block(loop( // rows of A, two at a time
+      [...get(i), ...i32c(2), add, ...get(n), gtS, op.brIf, 1],
+      [...get(a), ...get(i), ...get(la), mul, add, ...set(ra0)],
+      [...get(ra0), ...get(la), add, ...set(ra1)],
+      [...i32c(0), ...set(j)],
+      block(loop( // rows of B, two at a time
+        [...get(j), ...i32c(2), add, ...get(m), gtS, op.brIf, 1],
+        [...get(b), ...get(j), ...get(lb), mul, add, ...set(rb0)],
+        [...get(rb0), ...get(lb), add, ...set(rb1)],
+        [...vzero, ...set(s00), ...vzero, ...set(s01), ...vzero, ...set(s10), ...vzero, ...set(s11)],
+        [...i32c(0), ...set(p)],
+        block(loop( // k in pairs
+          [...get(p), ...get(k2b), geS, op.brIf, 1],
+          [...get(ra0), ...get(p), add, ...vload(), ...set(x0)],
+          [...get(ra1), ...get(p), add, ...vload(), ...set(x1)],
+          [...get(rb0), ...get(p), add, ...vload(), ...set(y0)],
+          [...get(rb1), ...get(p), add, ...vload(), ...set(y1)],
+          fma(s00, x0, y0), fma(s01, x0, y1), fma(s10, x1, y0), fma(s11, x1, y1),
+          [...get(p), ...i32c(16), add, ...set(p), op.br, 0],
+        )),
+        // cij = c + 8(i·ldc + j)
+        [...get(c), ...get(i), ...get(ldc), mul, ...get(j), add, ...i32c(3), shl, add, ...set(cij)],
+        [...get(cij), ...reduce(s00, ra0, rb0), ...f64store()],
+        [...get(cij), ...i32c(8), add, ...reduce(s01, ra0, rb1), ...f64store()],
+        [...get(cij), ...get(lc), add, ...reduce(s10, ra1, rb0), ...f64store()],
+        [...get(cij), ...get(lc), add, ...i32c(8), add, ...reduce(s11, ra1, rb1), ...f64store()],
+        [...get(j), ...i32c(2), add, ...set(j), op.br, 0],
+      )),
+      [...get(i), ...i32c(2), add, ...set(i), op.br, 0],
+    )),
   ];
-  const locals = [2, ...uleb(12), I32, ...uleb(8), V128];
-  const fn = [...locals, ...body];
-  const bytes = [
-    0x00, 0x61, 0x73, 0x6d, 0x01, 0x00, 0x00, 0x00,
-    ...section(1, [1, 0x60, 9, ...new Array(9).fill(I32), 0]), // type: (i32 × 9) → ()
-    ...section(2, [1, ...str("m"), ...str("mem"), 0x02, 0x01, 1, ...uleb(65536)]), // import memory (min 1, max 65536 pages)
-    ...section(3, [1, 0]), // function 0 has type 0
-    ...section(7, [1, ...str("dot"), 0x00, 0]), // export "dot" = function 0
-    ...section(10, [1, ...uleb(fn.length), ...fn]),
-  ];
-  return Uint8Array.from(bytes);
+  return moduleBytes("dot", new Array(9).fill(I32), null, [[12, I32], [8, V128]], body);
 }

@@ -19,6 +19,7 @@ import { EriEngine } from "../integrals/eri.ts";
 import { computeSchwarzFactors } from "../integrals/screening.ts";
 import type { ShellPair } from "../integrals/shell-pairs.ts";
 import { digestBlock, type GroupData, groupKernel } from "./jk-kernels.ts";
+import { MAX_SIMD_D, SimdStore, simdJkAvailable } from "./jk-simd.ts";
 import type { PreparedBasis } from "../integrals/shells.ts";
 
 export interface JkOptions {
@@ -34,6 +35,8 @@ export interface JkOptions {
    * every primitive quartet
    */
   primitiveCutoff?: number;
+  /** false: the JavaScript run kernels instead of the SIMD ones (jk-simd.ts; tests) */
+  simd?: boolean;
 }
 
 export interface JkStats {
@@ -67,6 +70,8 @@ export class JkBuilder {
   private groupShape: number[][] = [];
   /** the store's data for the run kernels (one allocation only) */
   private groupData: GroupData | null = null;
+  /** the store, quartet lists and matrices in WebAssembly memory for the SIMD run kernels */
+  private simd: SimdStore | null = null;
   /** in-core: chunk index and offset of each quartet's block */
   private qChunk: Int32Array | null = null;
   private qOff: Int32Array | null = null;
@@ -131,7 +136,29 @@ export class JkBuilder {
     const budget = options.memoryBytes ?? 4 * 1024 ** 3;
     const mode = options.mode ?? (doubles * 8 <= budget ? "in-core" : "direct");
     this.stats = { mode, storedBytes: 0, quartets: count, lastBuildQuartets: 0, integralSeconds: 0 };
-    if (mode === "in-core") this.store(doubles);
+    if (mode === "in-core") {
+      if (options.simd !== false && simdJkAvailable()) this.simd = this.simdStore(doubles);
+      this.store(doubles);
+    }
+  }
+
+  /** The SIMD kernels' memory with the quartet lists and pair data copied in; null if refused. */
+  private simdStore(doubles: number): SimdStore | null {
+    let st: SimdStore;
+    try {
+      st = new SimdStore(this.qBra.length, this.engine.pairs.length, this.nbf, doubles);
+    } catch {
+      return null;
+    }
+    const { i32, f64, at } = st;
+    i32.set(this.qBra, at.qBra / 4);
+    i32.set(this.qKet, at.qKet / 4);
+    i32.set(this.qCross, at.qCross / 4);
+    f64.set(this.qBound, at.qBound / 8);
+    i32.set(this.pA0, at.pA0 / 4);
+    i32.set(this.pB0, at.pB0 / 4);
+    f64.set(this.pHalf, at.pHalf / 8);
+    return st;
   }
 
   /**
@@ -186,7 +213,7 @@ export class JkBuilder {
     // as a third of the integral time on a VM. Chunks otherwise.
     let chunk: Float64Array;
     try {
-      chunk = new Float64Array(Math.max(doubles, 1));
+      chunk = this.simd !== null ? this.simd.storeView(Math.max(doubles, 1)) : new Float64Array(Math.max(doubles, 1));
     } catch {
       chunk = new Float64Array(CHUNK);
     }
@@ -211,6 +238,7 @@ export class JkBuilder {
     bytes += used * 8;
     this.qChunk = qChunk;
     this.qOff = qOff;
+    if (this.simd !== null) this.simd.i32.set(qOff, this.simd.at.qOff / 4);
     if (this.chunks.length === 1)
       this.groupData = { qBra: this.qBra, qKet: this.qKet, qBound: this.qBound, qCross: this.qCross, qOff,
         pA0: this.pA0, pB0: this.pB0, pHalf: this.pHalf };
@@ -294,11 +322,27 @@ export class JkBuilder {
     let pdAll = 0;
     for (let p = 0; p < pd.length; p++) if (pd[p] > pdAll) pdAll = pd[p];
     if (one && this.groupData !== null) {
-      // the RHF path through the store: one kernel call per run of one block shape
-      const gd = this.groupData, blk = this.chunks[0];
+      // the RHF path through the store: one kernel call per run of one block shape, in SIMD
+      // where there is a kernel for its last-shell size
+      const gd = this.groupData, blk = this.chunks[0], st = this.simd;
+      if (st !== null) {
+        st.f64.set(D1, st.at.D / 8);
+        st.f64.set(pd, st.at.pd / 8);
+        st.f64.fill(0, st.at.J / 8, st.at.J / 8 + n * n);
+        st.f64.fill(0, st.at.K / 8, st.at.K / 8 + n * n);
+      }
       for (let g = 0; g < this.groupShape.length; g++) {
         const [na, nb, nc, ndd] = this.groupShape[g];
-        built += groupKernel(ndd)(gd, this.groupStart[g], this.groupStart[g + 1], na, nb, nc, blk, pd, pdAll, th, n, D1, J, K1);
+        const q0 = this.groupStart[g], q1 = this.groupStart[g + 1];
+        if (st !== null && ndd <= MAX_SIMD_D) built += st.digest(ndd, q0, q1, na, nb, nc, n, pdAll, th);
+        else built += groupKernel(ndd)(gd, q0, q1, na, nb, nc, blk, pd, pdAll, th, n, D1, J, K1);
+      }
+      if (st !== null) {
+        const j0 = st.at.J / 8, k0 = st.at.K / 8;
+        for (let k = 0; k < n * n; k++) {
+          J[k] += st.f64[j0 + k];
+          K1[k] += st.f64[k0 + k];
+        }
       }
       this.stats.lastBuildQuartets = built;
       finishSymmetric(J, n);

@@ -7,6 +7,7 @@ import { describe, expect, it } from "vitest";
 import { EriEngine } from "../../../src/engine/integrals/eri.ts";
 import { JkBuilder } from "../../../src/engine/scf/jk.ts";
 import { groupKernel } from "../../../src/engine/scf/jk-kernels.ts";
+import { SimdStore, simdJkAvailable } from "../../../src/engine/scf/jk-simd.ts";
 import { rng } from "../integrals/helpers.ts";
 import { randomSymmetric } from "../linalg/helpers.ts";
 import { atomsBohr, scfProblem } from "./helpers.ts";
@@ -63,12 +64,12 @@ const cases = [
 ];
 
 describe("J/K digestion equals the defining sums over the full tensor", () => {
-  for (const c of cases) {
-    it(c.name, () => {
+  for (const c of cases) for (const simd of [true, false]) {
+    it(`${c.name} (${simd ? "SIMD" : "JavaScript"} run kernels)`, () => {
       const { basis } = scfProblem(c.atoms, c.basis, "rhf");
       const n = basis.nbf;
       // threshold 0: nothing screened, so the comparison is exact up to rounding
-      const jk = new JkBuilder(basis, { threshold: 0 });
+      const jk = new JkBuilder(basis, { threshold: 0, simd });
       const g = fullTensor(jk.engine, n);
       const D1 = randomSymmetric(n, 7), D2 = randomSymmetric(n, 11);
       const r1 = reference(g, D1, n), r2 = reference(g, D2, n);
@@ -125,6 +126,52 @@ describe("J/K run kernels", () => {
       expect(maxDiff(out[0].J, out[1].J)).toBeLessThan(1e-14);
       expect(maxDiff(out[0].K, out[1].K)).toBeLessThan(1e-14);
       expect(Math.max(...out[0].K.map(Math.abs))).toBeGreaterThan(0.01);
+    }
+  });
+
+  it("give the same J and K and screen the same quartets in SIMD as in JavaScript, for last shells of 1 to 10", () => {
+    expect(simdJkAvailable()).toBe(true);
+    const r = rng(9);
+    const n = 40, npair = 8, nq = 7;
+    const D = randomSymmetric(n, 13);
+    for (let nd = 1; nd <= 10; nd++) {
+      for (const [na, nb, nc] of [[1, 1, 1], [4, 3, 2], [3, 1, 5]]) {
+        const size = na * nb * nc * nd;
+        const blk = Float64Array.from({ length: nq * size }, () => r() - 0.5);
+        const g = {
+          qBra: Int32Array.from({ length: nq }, (_, q) => q % npair),
+          qKet: Int32Array.from({ length: nq }, (_, q) => (q * 3) % npair),
+          // quartet 2's bound is too small for the density: skipped by both
+          qBound: Float64Array.from({ length: nq }, (_, q) => (q === 2 ? 1e-14 : 1)),
+          qCross: Int32Array.from({ length: 4 * nq }, (_, k) => (k * 5) % npair),
+          qOff: Int32Array.from({ length: nq }, (_, q) => q * size),
+          pA0: Int32Array.from({ length: npair }, (_, p) => 3 * p),
+          pB0: Int32Array.from({ length: npair }, (_, p) => 3 * p + 1),
+          pHalf: Float64Array.from({ length: npair }, (_, p) => (p % 3 === 0 ? 0.5 : 1)),
+        };
+        const pd = Float64Array.from({ length: npair }, (_, p) => 0.5 + 0.1 * p);
+        const J = new Float64Array(n * n), K = new Float64Array(n * n);
+        const built = groupKernel(nd, { generated: false })(g, 0, nq, na, nb, nc, blk, pd, 1.2, 1e-12, n, D, J, K);
+        const st = new SimdStore(nq, npair, n, nq * size);
+        st.i32.set(g.qBra, st.at.qBra / 4);
+        st.i32.set(g.qKet, st.at.qKet / 4);
+        st.i32.set(g.qCross, st.at.qCross / 4);
+        st.i32.set(g.qOff, st.at.qOff / 4);
+        st.f64.set(g.qBound, st.at.qBound / 8);
+        st.i32.set(g.pA0, st.at.pA0 / 4);
+        st.i32.set(g.pB0, st.at.pB0 / 4);
+        st.f64.set(g.pHalf, st.at.pHalf / 8);
+        st.f64.set(pd, st.at.pd / 8);
+        st.f64.set(D, st.at.D / 8);
+        st.storeView(nq * size).set(blk);
+        const builtSimd = st.digest(nd, 0, nq, na, nb, nc, n, 1.2, 1e-12);
+        const Js = st.f64.subarray(st.at.J / 8, st.at.J / 8 + n * n), Ks = st.f64.subarray(st.at.K / 8, st.at.K / 8 + n * n);
+        expect(built).toBe(nq - 1);
+        expect(builtSimd).toBe(built);
+        expect(maxDiff(Js, J)).toBeLessThan(1e-14);
+        expect(maxDiff(Ks, K)).toBeLessThan(1e-14);
+        expect(Math.max(...K.map(Math.abs))).toBeGreaterThan(0.01);
+      }
     }
   });
 });
