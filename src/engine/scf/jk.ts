@@ -19,7 +19,7 @@ import { EriEngine } from "../integrals/eri.ts";
 import { computeSchwarzFactors } from "../integrals/screening.ts";
 import type { ShellPair } from "../integrals/shell-pairs.ts";
 import { digestBlock, type GroupData, groupKernel } from "./jk-kernels.ts";
-import { MAX_SIMD_D, SimdStore, simdJkAvailable } from "./jk-simd.ts";
+import { MAX_SIMD_D, SIMD_PIECE_DOUBLES, SimdStore, simdJkAvailable } from "./jk-simd.ts";
 import type { PreparedBasis } from "../integrals/shells.ts";
 
 export interface JkOptions {
@@ -137,27 +137,29 @@ export class JkBuilder {
     const mode = options.mode ?? (doubles * 8 <= budget ? "in-core" : "direct");
     this.stats = { mode, storedBytes: 0, quartets: count, lastBuildQuartets: 0, integralSeconds: 0 };
     if (mode === "in-core") {
-      if (options.simd !== false && simdJkAvailable()) this.simd = this.simdStore(doubles);
       this.store(doubles);
+      if (options.simd !== false && this.groupData !== null && simdJkAvailable() && this.largestBlock() <= SIMD_PIECE_DOUBLES)
+        this.simd = this.simdStore();
     }
   }
 
-  /** The SIMD kernels' memory with the quartet lists and pair data copied in; null if refused. */
-  private simdStore(doubles: number): SimdStore | null {
+  private largestBlock(): number {
+    let m = 0;
+    for (const [a, b, c, d] of this.groupShape) m = Math.max(m, a * b * c * d);
+    return m;
+  }
+
+  /** The SIMD kernels' memory with the pair data copied in; null if refused. */
+  private simdStore(): SimdStore | null {
     let st: SimdStore;
     try {
-      st = new SimdStore(this.qBra.length, this.engine.pairs.length, this.nbf, doubles);
+      st = new SimdStore(this.engine.pairs.length, this.nbf);
     } catch {
       return null;
     }
-    const { i32, f64, at } = st;
-    i32.set(this.qBra, at.qBra / 4);
-    i32.set(this.qKet, at.qKet / 4);
-    i32.set(this.qCross, at.qCross / 4);
-    f64.set(this.qBound, at.qBound / 8);
-    i32.set(this.pA0, at.pA0 / 4);
-    i32.set(this.pB0, at.pB0 / 4);
-    f64.set(this.pHalf, at.pHalf / 8);
+    st.i32.set(this.pA0, st.at.pA0 / 4);
+    st.i32.set(this.pB0, st.at.pB0 / 4);
+    st.f64.set(this.pHalf, st.at.pHalf / 8);
     return st;
   }
 
@@ -213,7 +215,7 @@ export class JkBuilder {
     // as a third of the integral time on a VM. Chunks otherwise.
     let chunk: Float64Array;
     try {
-      chunk = this.simd !== null ? this.simd.storeView(Math.max(doubles, 1)) : new Float64Array(Math.max(doubles, 1));
+      chunk = new Float64Array(Math.max(doubles, 1));
     } catch {
       chunk = new Float64Array(CHUNK);
     }
@@ -238,7 +240,6 @@ export class JkBuilder {
     bytes += used * 8;
     this.qChunk = qChunk;
     this.qOff = qOff;
-    if (this.simd !== null) this.simd.i32.set(qOff, this.simd.at.qOff / 4);
     if (this.chunks.length === 1)
       this.groupData = { qBra: this.qBra, qKet: this.qKet, qBound: this.qBound, qCross: this.qCross, qOff,
         pA0: this.pA0, pB0: this.pB0, pHalf: this.pHalf };
@@ -334,7 +335,7 @@ export class JkBuilder {
       for (let g = 0; g < this.groupShape.length; g++) {
         const [na, nb, nc, ndd] = this.groupShape[g];
         const q0 = this.groupStart[g], q1 = this.groupStart[g + 1];
-        if (st !== null && ndd <= MAX_SIMD_D) built += st.digest(ndd, q0, q1, na, nb, nc, n, pdAll, th);
+        if (st !== null && ndd <= MAX_SIMD_D) built += st.digestRun(gd, blk, ndd, q0, q1, na, nb, nc, n, pdAll, th);
         else built += groupKernel(ndd)(gd, q0, q1, na, nb, nc, blk, pd, pdAll, th, n, D1, J, K1);
       }
       if (st !== null) {

@@ -152,22 +152,20 @@ describe("J/K run kernels", () => {
         const pd = Float64Array.from({ length: npair }, (_, p) => 0.5 + 0.1 * p);
         const J = new Float64Array(n * n), K = new Float64Array(n * n);
         const built = groupKernel(nd, { generated: false })(g, 0, nq, na, nb, nc, blk, pd, 1.2, 1e-12, n, D, J, K);
-        const st = new SimdStore(nq, npair, n, nq * size);
-        st.i32.set(g.qBra, st.at.qBra / 4);
-        st.i32.set(g.qKet, st.at.qKet / 4);
-        st.i32.set(g.qCross, st.at.qCross / 4);
-        st.i32.set(g.qOff, st.at.qOff / 4);
-        st.f64.set(g.qBound, st.at.qBound / 8);
+        // pieces of two quartets: the runs span several pieces
+        const st = new SimdStore(npair, n, { quartets: 2, doubles: 2 * size });
         st.i32.set(g.pA0, st.at.pA0 / 4);
         st.i32.set(g.pB0, st.at.pB0 / 4);
         st.f64.set(g.pHalf, st.at.pHalf / 8);
         st.f64.set(pd, st.at.pd / 8);
         st.f64.set(D, st.at.D / 8);
-        st.storeView(nq * size).set(blk);
-        const builtSimd = st.digest(nd, 0, nq, na, nb, nc, n, 1.2, 1e-12);
+        // from quartet 1 on, so that the pieces' offsets do not start at 0
+        const builtSimd = st.digestRun(g, blk, nd, 0, 1, na, nb, nc, n, 1.2, 1e-12) + st.digestRun(g, blk, nd, 1, nq, na, nb, nc, n, 1.2, 1e-12);
         const Js = st.f64.subarray(st.at.J / 8, st.at.J / 8 + n * n), Ks = st.f64.subarray(st.at.K / 8, st.at.K / 8 + n * n);
         expect(built).toBe(nq - 1);
         expect(builtSimd).toBe(built);
+        // a density too small for every bound: whole pieces skipped, nothing digested
+        expect(st.digestRun(g, blk, nd, 0, nq, na, nb, nc, n, 1e-20, 1e-12)).toBe(0);
         expect(maxDiff(Js, J)).toBeLessThan(1e-14);
         expect(maxDiff(Ks, K)).toBeLessThan(1e-14);
         expect(Math.max(...K.map(Math.abs))).toBeGreaterThan(0.01);
