@@ -62,7 +62,7 @@ export class SimdStore {
     qBra: number; qKet: number; qOff: number; qCross: number; qBound: number;
     pA0: number; pB0: number; pHalf: number; pd: number; D: number; J: number; K: number; blk: number;
   };
-  private readonly kernels = new Map<number, Kernel>();
+  private readonly kernels = new Map<number, Kernel | null>();
   private readonly pieceQuartets: number;
   private readonly pieceDoubles: number;
 
@@ -96,9 +96,15 @@ export class SimdStore {
     let k = this.kernels.get(nd);
     if (k === undefined) {
       const m = nd <= MAX_SIMD_D ? kernelModule(nd) : null;
-      if (m === null) return null;
-      k = new WebAssembly.Instance(m, { m: { mem: this.memory } }).exports.digest as Kernel;
-      this.kernels.set(nd, k);
+      let made: Kernel | null = null;
+      try {
+        // a browser's main thread may refuse synchronous instantiation: the JavaScript kernel then
+        if (m !== null) made = new WebAssembly.Instance(m, { m: { mem: this.memory } }).exports.digest as Kernel;
+      } catch {
+        made = null;
+      }
+      this.kernels.set(nd, made);
+      return made;
     }
     return k;
   }
