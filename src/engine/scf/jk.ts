@@ -322,31 +322,31 @@ export class JkBuilder {
     let pdAll = 0;
     for (let p = 0; p < pd.length; p++) if (pd[p] > pdAll) pdAll = pd[p];
     if (one && this.groupData !== null) {
-      // the RHF path through the store: one kernel call per run of one block shape, in SIMD
-      // where there is a kernel for its last-shell size
-      const gd = this.groupData, blk = this.chunks[0], st = this.simd;
-      if (st !== null) {
-        st.f64.set(D1, st.at.D / 8);
-        st.f64.set(pd, st.at.pd / 8);
-        st.f64.fill(0, st.at.J / 8, st.at.J / 8 + n * n);
-        st.f64.fill(0, st.at.K / 8, st.at.K / 8 + n * n);
-      }
-      for (let g = 0; g < this.groupShape.length; g++) {
-        const [na, nb, nc, ndd] = this.groupShape[g];
-        const q0 = this.groupStart[g], q1 = this.groupStart[g + 1];
-        if (st !== null && ndd <= MAX_SIMD_D && st.kernel(ndd) !== null) built += st.digestRun(gd, blk, ndd, q0, q1, na, nb, nc, n, pdAll, th);
-        else built += groupKernel(ndd)(gd, q0, q1, na, nb, nc, blk, pd, pdAll, th, n, D1, J, K1);
-      }
-      if (st !== null) {
-        const j0 = st.at.J / 8, k0 = st.at.K / 8;
-        for (let k = 0; k < n * n; k++) {
-          J[k] += st.f64[j0 + k];
-          K1[k] += st.f64[k0 + k];
-        }
-      }
+      // the RHF path through the store: one kernel call per run of one block shape
+      built = this.digestRuns(D1, pd, pdAll, th, J, K1);
       this.stats.lastBuildQuartets = built;
       finishSymmetric(J, n);
       finishSymmetric(K1, n);
+      return { J, K };
+    }
+    if (nd === 2 && wantK && this.groupData !== null && this.simd !== null) {
+      // two densities (UHF, ROHF) with the SIMD kernels: one pass per density, each screened
+      // by its own density; J is the sum of the two passes' J. Faster than one JavaScript pass
+      // that digests both densities at once.
+      const Jb = new Float64Array(n * n);
+      let most = 0;
+      densities.forEach((D, x) => {
+        const pdx = new Float64Array(pd.length);
+        this.updatePairDmax([D], D, pdx);
+        let all = 0;
+        for (let p = 0; p < pdx.length; p++) if (pdx[p] > all) all = pdx[p];
+        most = Math.max(most, this.digestRuns(D, pdx, all, th, x === 0 ? J : Jb, K[x]));
+      });
+      for (let k = 0; k < n * n; k++) J[k] += Jb[k];
+      // the larger pass's count: quartets digested at least once
+      this.stats.lastBuildQuartets = most;
+      finishSymmetric(J, n);
+      for (const k of K) finishSymmetric(k, n);
       return { J, K };
     }
     const chunks = this.chunks, qChunk = this.qChunk, qOff = this.qOff;
@@ -382,7 +382,38 @@ export class JkBuilder {
     return { J, K };
   }
 
-  private updatePairDmax(densities: Float64Array[], Dt: Float64Array): void {
+  /**
+   * J and K (before M ← M + Mᵀ) of one density from the store, run by run: the SIMD kernels
+   * where they run and have the run's last-shell size, the JavaScript ones otherwise. pd: per
+   * pair the largest |D| element, pdAll its maximum. Returns the quartets digested.
+   */
+  private digestRuns(D1: Float64Array, pd: Float64Array, pdAll: number, th: number, J: Float64Array, K1: Float64Array): number {
+    const n = this.nbf;
+    const gd = this.groupData!, blk = this.chunks[0], st = this.simd;
+    let built = 0;
+    if (st !== null) {
+      st.f64.set(D1, st.at.D / 8);
+      st.f64.set(pd, st.at.pd / 8);
+      st.f64.fill(0, st.at.J / 8, st.at.J / 8 + n * n);
+      st.f64.fill(0, st.at.K / 8, st.at.K / 8 + n * n);
+    }
+    for (let g = 0; g < this.groupShape.length; g++) {
+      const [na, nb, nc, ndd] = this.groupShape[g];
+      const q0 = this.groupStart[g], q1 = this.groupStart[g + 1];
+      if (st !== null && ndd <= MAX_SIMD_D && st.kernel(ndd) !== null) built += st.digestRun(gd, blk, ndd, q0, q1, na, nb, nc, n, pdAll, th);
+      else built += groupKernel(ndd)(gd, q0, q1, na, nb, nc, blk, pd, pdAll, th, n, D1, J, K1);
+    }
+    if (st !== null) {
+      const j0 = st.at.J / 8, k0 = st.at.K / 8;
+      for (let k = 0; k < n * n; k++) {
+        J[k] += st.f64[j0 + k];
+        K1[k] += st.f64[k0 + k];
+      }
+    }
+    return built;
+  }
+
+  private updatePairDmax(densities: Float64Array[], Dt: Float64Array, out = this.pairDmax): void {
     const n = this.nbf;
     const pairs = this.engine.pairs;
     for (let p = 0; p < pairs.length; p++) {
@@ -393,7 +424,7 @@ export class JkBuilder {
           m = Math.max(m, Math.abs(Dt[a * n + b]));
           for (const D of densities) m = Math.max(m, Math.abs(D[a * n + b]));
         }
-      this.pairDmax[p] = m;
+      out[p] = m;
     }
   }
 
