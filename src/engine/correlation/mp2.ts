@@ -19,6 +19,8 @@ export interface Mp2Options {
   /** memory for the transformation batches; default 1 GiB */
   memoryBytes?: number;
   onBatch?: (done: number, total: number) => void;
+  /** false: the JavaScript dot kernel instead of the SIMD one (linalg/simd.ts; tests) */
+  simd?: boolean;
 }
 
 export interface Mp2Energies {
@@ -50,6 +52,7 @@ export function mp2Energy(scf: ScfResult, options: Mp2Options): Mp2Energies {
   const m = scf.orthogonalization.nmo;
   const fc = options.frozen;
   const mem = options.memoryBytes ?? 1024 ** 3;
+  const kernel = { simd: options.simd };
   const jk = scf.matrices.jk;
   const stats: TransformStats[] = [];
   let os = 0;
@@ -83,7 +86,7 @@ export function mp2Energy(scf: ScfResult, options: Mp2Options): Mp2Energies {
         }
       }
       options.onBatch?.(i0 + count, no);
-    }));
+    }, kernel));
   } else {
     // same spin, per spin: ¼ Σ (t − u)² / Δ
     for (let s = 0; s < 2; s++) {
@@ -104,7 +107,7 @@ export function mp2Energy(scf: ScfResult, options: Mp2Options): Mp2Energies {
               }
             }
         }
-      }));
+      }, kernel));
     }
     // opposite spin: i, a of α with j, b of β
     const oa = occ(0), va = vir(0), ob = occ(1), vb = vir(1);
@@ -124,7 +127,7 @@ export function mp2Energy(scf: ScfResult, options: Mp2Options): Mp2Energies {
             }
         }
         options.onBatch?.(i0 + count, noa);
-      }));
+      }, kernel));
   }
   return { ...mp2Summary(scf, fc, os, ss), transform: stats };
 }
