@@ -9,7 +9,9 @@
  * fourth shell.
  */
 import { dotWorkspace, type DotWorkspace } from "../linalg/simd.ts";
+import { regions } from "../linalg/wasm.ts";
 import { EriEngine } from "../integrals/eri.ts";
+import { schwarzFactor } from "../integrals/screening.ts";
 import type { ShellPair } from "../integrals/shell-pairs.ts";
 import type { PreparedBasis, PreparedShell } from "../integrals/shells.ts";
 import type { ScfResult } from "../scf/scf.ts";
@@ -90,12 +92,8 @@ interface Layout {
 const PANEL = 32;
 
 function layout(n: number, m: number, naux: number, fc: number, nocc: number[], maxNf: number): Layout {
-  let at = 0;
-  const take = (d: number) => {
-    const o = at;
-    at += d;
-    return o;
-  };
+  const mem = regions();
+  const take = mem.take;
   const spins = nocc.map((no1) => {
     const no = no1 - fc, nv = m - no1;
     return { no, nv, cot: take(no * n), cvt: take(nv * n), b: take(no * nv * naux) };
@@ -103,7 +101,7 @@ function layout(n: number, m: number, naux: number, fc: number, nocc: number[], 
   const maxNo = Math.max(...spins.map((x) => x.no)), maxNv = Math.max(...spins.map((x) => x.nv));
   return {
     spins, t: take(maxNv * maxNv), l: take(naux * naux), sq: take(maxNf * n * n), z: take(maxNo * n), r: take(maxNo * maxNv),
-    panel: take(maxNo * maxNv * PANEL), doubles: at,
+    panel: take(maxNo * maxNv * PANEL), doubles: mem.size,
   };
 }
 
@@ -214,13 +212,7 @@ export function riMp2Energy(scf: ScfResult, options: RiMp2Options): RiMp2Energie
     if (k !== unit) (s.offset < n ? orbIdx : auxIdx).push(k);
   });
   // Cauchy–Schwarz bounds: √(μν|μν) per orbital pair, √(P|P) per fitting shell
-  const bound = (P: ShellPair) => {
-    const blk = engine.compute(P, P);
-    const nf = P.a.nfunc * P.b.nfunc;
-    let mx = 0;
-    for (let i = 0; i < nf; i++) mx = Math.max(mx, Math.abs(blk[i * nf + i]));
-    return Math.sqrt(mx);
-  };
+  const bound = (P: ShellPair) => schwarzFactor(engine, P);
   const auxPairs = auxIdx.map((k) => engine.pair(k, unit));
   const auxBound = auxPairs.map(bound);
   const auxMax = Math.max(...auxBound);

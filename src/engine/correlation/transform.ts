@@ -16,6 +16,7 @@
  * The AO integrals come from the SCF's in-core store or are recomputed per batch (direct).
  */
 import { dotWorkspace } from "../linalg/simd.ts";
+import { regions } from "../linalg/wasm.ts";
 import type { ShellPair } from "../integrals/shell-pairs.ts";
 import type { JkBuilder } from "../scf/jk.ts";
 
@@ -71,16 +72,12 @@ export function transformIajb(
   const batch = Math.max(1, Math.min(no, Math.floor(memoryBytes / perOcc)));
   // workspace: coefficients (transposed: one orbital per row), the gathered matrices of one ket
   // pair, one unpacked X_i(ν, ·), then the batch's X, H and T
-  let at = 0;
-  const take = (d: number) => {
-    const o = at;
-    at += d;
-    return o;
-  };
+  const mem = regions();
+  const take = mem.take;
   const cot = take(batch * n), c2ot = take(no2 * n), cv1t = take(nv * n), cv2t = take(nv2 * n);
   const mq = take(n * maxPair * n), w = take(nn), bvt = take(nv2 * n);
   const X = take(batch * n * npk), H = take(batch * no2 * nn), T = take(batch * nv * no2 * nv2);
-  const ws = dotWorkspace(at, { simd: options.simd });
+  const ws = dotWorkspace(mem.size, { simd: options.simd });
   const f = ws.f64;
   const putT = (dst: number, blk: OrbitalBlock, from = 0, count = blk.ncols) => {
     for (let mu = 0; mu < n; mu++) for (let c = 0; c < count; c++) f[dst + c * n + mu] = blk.C[mu * blk.ncols + from + c];
@@ -122,7 +119,7 @@ export function transformIajb(
       }
     visit(i0, nb, f.subarray(T, T + nb * nv * no2 * nv2));
   }
-  return { batches, batchSize: batch, peakBytes: 8 * at };
+  return { batches, batchSize: batch, peakBytes: 8 * mem.size };
 }
 
 /**

@@ -87,6 +87,24 @@ export function moduleBytes(
   return Uint8Array.from(bytes);
 }
 
+/**
+ * Consecutive regions of one memory (the kernels' workspaces): take(size) returns the next
+ * region's start and moves past it, rounded up to a multiple of `align`; `size` is the total.
+ */
+export function regions(align = 1): { take: (size: number) => number; readonly size: number } {
+  let at = 0;
+  return {
+    take: (size: number) => {
+      const o = at;
+      at += Math.ceil(size / align) * align;
+      return o;
+    },
+    get size() {
+      return at;
+    },
+  };
+}
+
 /** Compile, or null where WebAssembly (or its SIMD) is unavailable or not allowed. */
 export function compileModule(bytes: Uint8Array<ArrayBuffer>): WebAssembly.Module | null {
   try {

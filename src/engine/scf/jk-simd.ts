@@ -11,8 +11,8 @@
  */
 import type { GroupData } from "./jk-kernels.ts";
 import {
-  block, compileModule, F64, f64c, f64load, f64store, get, I32, i32c, i32load, loop, moduleBytes, op, set, V128, vadd, vlane,
-  vload, vmul, vsplat, vstore, vzero,
+  block, compileModule, F64, f64c, f64load, f64store, get, I32, i32c, i32load, loop, moduleBytes, op, regions, set, V128, vadd,
+  vlane, vload, vmul, vsplat, vstore, vzero,
 } from "../linalg/wasm.ts";
 
 /** Last-shell sizes with a SIMD kernel (Cartesian f has 10 functions). */
@@ -73,19 +73,15 @@ export class SimdStore {
   constructor(pairs: number, n: number, piece: { quartets: number; doubles: number } = { quartets: PIECE_QUARTETS, doubles: PIECE_DOUBLES }) {
     this.pieceQuartets = piece.quartets;
     this.pieceDoubles = piece.doubles;
-    let bytes = 0;
-    const take = (b: number) => {
-      const o = bytes;
-      bytes += Math.ceil(b / 16) * 16;
-      return o;
-    };
+    const mem = regions(16);
+    const take = mem.take;
     const nq = piece.quartets;
     this.at = {
       qBra: take(4 * nq), qKet: take(4 * nq), qOff: take(4 * nq), qCross: take(16 * nq), qBound: take(8 * nq),
       pA0: take(4 * pairs), pB0: take(4 * pairs), pHalf: take(8 * pairs), pd: take(8 * pairs),
       D: take(8 * n * n), J: take(8 * n * n), K: take(8 * n * n), blk: take(8 * piece.doubles),
     };
-    const pages = Math.ceil(bytes / 65536);
+    const pages = Math.ceil(mem.size / 65536);
     if (pages > 65536) throw new RangeError("beyond 4 GiB");
     this.memory = new WebAssembly.Memory({ initial: pages, maximum: pages });
     this.f64 = new Float64Array(this.memory.buffer);

@@ -70,7 +70,7 @@ export class JkBuilder {
   private groupShape: number[][] = [];
   /** the store's data for the run kernels (one allocation only) */
   private groupData: GroupData | null = null;
-  /** the store, quartet lists and matrices in WebAssembly memory for the SIMD run kernels */
+  /** D, J, K, pair data and the streamed pieces in WebAssembly memory for the SIMD run kernels */
   private simd: SimdStore | null = null;
   /** in-core: chunk index and offset of each quartet's block */
   private qChunk: Int32Array | null = null;
@@ -251,13 +251,15 @@ export class JkBuilder {
    * block, offset) with the block's elements at block[offset …] in EriEngine.compute layout.
    */
   forEachBlock(visit: (P: ShellPair, Q: ShellPair, blk: Float64Array, off: number) => void): void {
-    const pairs = this.engine.pairs;
-    for (let q = 0; q < this.qBra.length; q++) {
-      const P = pairs[this.qBra[q]];
-      const Q = pairs[this.qKet[q]];
-      if (this.qChunk !== null) visit(P, Q, this.chunks[this.qChunk[q]], this.qOff![q]);
-      else visit(P, Q, this.engine.compute(P, Q), 0);
-    }
+    for (let q = 0; q < this.qBra.length; q++) this.visitQuartet(q, visit);
+  }
+
+  /** Quartet q's block, stored or recomputed, to visit. */
+  private visitQuartet(q: number, visit: (P: ShellPair, Q: ShellPair, blk: Float64Array, off: number) => void): void {
+    const P = this.engine.pairs[this.qBra[q]];
+    const Q = this.engine.pairs[this.qKet[q]];
+    if (this.qChunk !== null) visit(P, Q, this.chunks[this.qChunk[q]], this.qOff![q]);
+    else visit(P, Q, this.engine.compute(P, Q), 0);
   }
 
   /** per shell pair, the quartets it is part of (CSR over pair indices; made on first use) */
@@ -271,14 +273,7 @@ export class JkBuilder {
    */
   forEachBlockOfPair(pair: number, visit: (P: ShellPair, Q: ShellPair, blk: Float64Array, off: number) => void): void {
     const idx = this.byPair ?? (this.byPair = this.pairIndexOfQuartets());
-    const pairs = this.engine.pairs;
-    for (let t = idx.start[pair]; t < idx.start[pair + 1]; t++) {
-      const q = idx.q[t];
-      const P = pairs[this.qBra[q]];
-      const Q = pairs[this.qKet[q]];
-      if (this.qChunk !== null) visit(P, Q, this.chunks[this.qChunk[q]], this.qOff![q]);
-      else visit(P, Q, this.engine.compute(P, Q), 0);
-    }
+    for (let t = idx.start[pair]; t < idx.start[pair + 1]; t++) this.visitQuartet(idx.q[t], visit);
   }
 
   private pairIndexOfQuartets(): { start: Int32Array; q: Int32Array } {
@@ -305,11 +300,29 @@ export class JkBuilder {
   build(densities: Float64Array[], wantK = true, threshold = this.threshold): { J: Float64Array; K: Float64Array[] } {
     const n = this.nbf;
     const nd = densities.length;
-    const Dt = new Float64Array(n * n);
-    for (const D of densities) for (let k = 0; k < n * n; k++) Dt[k] += D[k];
     const J = new Float64Array(n * n);
     const K = densities.map(() => new Float64Array(n * n));
-    this.updatePairDmax(densities, Dt);
+    if (nd === 2 && wantK && this.groupData !== null && this.simd !== null) {
+      // two densities (UHF, ROHF) with the SIMD kernels: one pass per density, each screened
+      // by its own density; J is the sum of the two passes' J. Faster than one JavaScript pass
+      // that digests both densities at once.
+      const Jb = new Float64Array(n * n);
+      let most = 0;
+      densities.forEach((D, x) => {
+        this.updatePairDmax([D]);
+        const pdx = this.pairDmax;
+        most = Math.max(most, this.digestRuns(D, pdx, maxOf(pdx), threshold, x === 0 ? J : Jb, K[x]));
+      });
+      for (let k = 0; k < n * n; k++) J[k] += Jb[k];
+      // the larger pass's count: quartets digested at least once
+      this.stats.lastBuildQuartets = most;
+      finishSymmetric(J, n);
+      for (const k of K) finishSymmetric(k, n);
+      return { J, K };
+    }
+    const Dt = new Float64Array(n * n);
+    for (const D of densities) for (let k = 0; k < n * n; k++) Dt[k] += D[k];
+    this.updatePairDmax(nd === 1 ? densities : [...densities, Dt]);
     const pairs = this.engine.pairs;
     const pd = this.pairDmax;
     const cross = this.qCross;
@@ -319,34 +332,13 @@ export class JkBuilder {
     const one = nd === 1 && wantK;
     const D1 = densities[0], K1 = K[0];
     if (nd > 2) throw new Error("J/K builds take one or two densities");
-    let pdAll = 0;
-    for (let p = 0; p < pd.length; p++) if (pd[p] > pdAll) pdAll = pd[p];
+    const pdAll = maxOf(pd);
     if (one && this.groupData !== null) {
       // the RHF path through the store: one kernel call per run of one block shape
       built = this.digestRuns(D1, pd, pdAll, th, J, K1);
       this.stats.lastBuildQuartets = built;
       finishSymmetric(J, n);
       finishSymmetric(K1, n);
-      return { J, K };
-    }
-    if (nd === 2 && wantK && this.groupData !== null && this.simd !== null) {
-      // two densities (UHF, ROHF) with the SIMD kernels: one pass per density, each screened
-      // by its own density; J is the sum of the two passes' J. Faster than one JavaScript pass
-      // that digests both densities at once.
-      const Jb = new Float64Array(n * n);
-      let most = 0;
-      densities.forEach((D, x) => {
-        const pdx = new Float64Array(pd.length);
-        this.updatePairDmax([D], D, pdx);
-        let all = 0;
-        for (let p = 0; p < pdx.length; p++) if (pdx[p] > all) all = pdx[p];
-        most = Math.max(most, this.digestRuns(D, pdx, all, th, x === 0 ? J : Jb, K[x]));
-      });
-      for (let k = 0; k < n * n; k++) J[k] += Jb[k];
-      // the larger pass's count: quartets digested at least once
-      this.stats.lastBuildQuartets = most;
-      finishSymmetric(J, n);
-      for (const k of K) finishSymmetric(k, n);
       return { J, K };
     }
     const chunks = this.chunks, qChunk = this.qChunk, qOff = this.qOff;
@@ -413,20 +405,20 @@ export class JkBuilder {
     return built;
   }
 
-  private updatePairDmax(densities: Float64Array[], Dt: Float64Array, out = this.pairDmax): void {
+  /** pairDmax ← per shell pair the largest |element| of any of the matrices over its block. */
+  private updatePairDmax(mats: Float64Array[]): void {
     const n = this.nbf;
     const pairs = this.engine.pairs;
     for (let p = 0; p < pairs.length; p++) {
       const A = pairs[p].a, B = pairs[p].b;
       let m = 0;
       for (let a = A.offset; a < A.offset + A.nfunc; a++)
-        for (let b = B.offset; b < B.offset + B.nfunc; b++) {
-          m = Math.max(m, Math.abs(Dt[a * n + b]));
-          for (const D of densities) m = Math.max(m, Math.abs(D[a * n + b]));
-        }
-      out[p] = m;
+        for (let b = B.offset; b < B.offset + B.nfunc; b++)
+          for (const M of mats) m = Math.max(m, Math.abs(M[a * n + b]));
+      this.pairDmax[p] = m;
     }
   }
+
 
   /**
    * One block into J only, or into J and the K of two densities (UHF, ROHF, stability), in a
@@ -494,6 +486,12 @@ export class JkBuilder {
       }
     }
   }
+}
+
+function maxOf(a: Float64Array): number {
+  let m = 0;
+  for (let k = 0; k < a.length; k++) if (a[k] > m) m = a[k];
+  return m;
 }
 
 /** M ← M + Mᵀ. */
